@@ -1,0 +1,298 @@
+package toolpath
+
+import (
+	"errors"
+	"math"
+	"strconv"
+
+	"github.com/focitools/foci/ellipse"
+)
+
+// Spec says what to approximate and how closely.
+type Spec struct {
+	// Curve is the intended curve: the ellipse (e.Curve()) or a parallel
+	// curve of it (e.Parallel(d)).
+	Curve ellipse.Parallel
+	// Zone and Tol bound the deviation of every point of the path from
+	// Curve (signed distance, + outward).
+	Zone Zone
+	Tol  float64
+	// Geometry chooses lines or tangent-continuous arcs.
+	Geometry Geometry
+	// Decimals is the number of decimals the writer will print
+	// coordinates with: the rounding is taken out of the tolerance so the
+	// zone still holds for the written numbers. 0 chooses [DecimalsFor];
+	// a negative value assumes exact coordinates.
+	Decimals int
+	// From and To are curve parameters (radians). To == From approximates
+	// the whole closed curve starting and ending at From; otherwise the
+	// open arc from From to To (clockwise when To < From).
+	From, To float64
+	// Clockwise runs a closed curve clockwise instead of counter-clockwise.
+	Clockwise bool
+	// Z is the height given to every segment.
+	Z float64
+}
+
+// MaxSegments bounds the size of one approximation: a tolerance that would
+// need more segments is refused rather than allowed to exhaust memory or
+// the machine's buffer.
+const MaxSegments = 20_000_000
+
+// Errors returned by [NewApproximator], wrapped in a [*SpecError].
+var (
+	ErrTolerance = errors.New("tolerance must be a finite number greater than zero")
+	ErrTooFine   = errors.New("tolerance too fine")
+	ErrDecimals  = errors.New("too few decimals for the tolerance")
+	ErrInvalid   = errors.New("invalid curve")
+	ErrRange     = errors.New("parameter range must be finite and at most one turn")
+	ErrOffset    = errors.New("offset too far inward for the zone")
+)
+
+// SpecError reports a rejected Spec field.
+type SpecError struct {
+	Field string  // "Tol", "Decimals", "From", "Curve"
+	Value float64 // the rejected value
+	Limit float64 // the limit passed, or a count for ErrTooFine
+	Err   error
+}
+
+// Error returns a message naming the field, its value and the limit.
+func (e *SpecError) Error() string {
+	b := []byte("toolpath: ")
+	b = append(b, e.Field...)
+	b = append(b, ' ')
+	b = strconv.AppendFloat(b, e.Value, 'g', 6, 64)
+	b = append(b, ": "...)
+	b = append(b, e.Err.Error()...)
+	switch e.Err {
+	case ErrTooFine:
+		b = append(b, " (would need about "...)
+		b = strconv.AppendFloat(b, e.Limit, 'g', 3, 64)
+		b = append(b, " segments; the limit is "...)
+		b = strconv.AppendInt(b, MaxSegments, 10)
+		b = append(b, ')')
+	case ErrDecimals, ErrOffset:
+		b = append(b, " (limit "...)
+		b = strconv.AppendFloat(b, e.Limit, 'g', 6, 64)
+		b = append(b, ')')
+	}
+	return string(b)
+}
+
+// Unwrap returns the sentinel.
+func (e *SpecError) Unwrap() error { return e.Err }
+
+// roundingShare is the fraction of the tolerance that DecimalsFor lets
+// coordinate rounding take.
+const roundingShare = 0.01
+
+// DecimalsFor returns the number of decimals (at least 3, at most 12) for
+// which the rounding allowance of [RoundingAllowance] is at most 1% of tol.
+func DecimalsFor(tol float64) int {
+	if !(tol > 0) || math.IsInf(tol, 0) {
+		return 3
+	}
+	n := int(math.Ceil(math.Log10(math.Sqrt2 / (roundingShare * tol))))
+	return min(max(n, 3), 12)
+}
+
+// RoundingAllowance returns how far a written segment can lie from the
+// computed one when every coordinate (ends and arc centre) is rounded to
+// the given decimals: √2·10^−decimals, twice the half-unit diagonal, since
+// an arc moves with its ends and its centre. Negative decimals give 0.
+func RoundingAllowance(decimals int) float64 {
+	if decimals < 0 {
+		return 0
+	}
+	return math.Sqrt2 * math.Pow(10, -float64(decimals))
+}
+
+// Approximator streams the segments of a Spec. It holds O(1) state and
+// allocates nothing per segment; create it with [NewApproximator] and call
+// [Approximator.Next] until it reports false.
+type Approximator struct {
+	spec  Spec
+	f     frame
+	lo    float64 // usable deviation range after the rounding allowance
+	hi    float64
+	round float64 // rounding allowance
+	sigma float64 // +1 counter-clockwise, −1 clockwise
+	t     float64 // current parameter
+	tEnd  float64
+	done  bool
+	n     int // segments emitted
+	arcs  arcState
+}
+
+// NewApproximator validates s and returns an Approximator positioned at its
+// start.
+func NewApproximator(s Spec) (*Approximator, error) {
+	a := new(Approximator)
+	if err := a.Reset(s); err != nil {
+		return nil, err
+	}
+	return a, nil
+}
+
+// Reset reuses a for a new Spec.
+func (a *Approximator) Reset(s Spec) error {
+	if !(s.Tol > 0) || math.IsInf(s.Tol, 0) {
+		return &SpecError{Field: "Tol", Value: s.Tol, Err: ErrTolerance}
+	}
+	e := s.Curve.Ellipse()
+	if !(e.SemiMajor() > 0) {
+		return &SpecError{Field: "Curve", Err: ErrInvalid}
+	}
+	if math.IsNaN(s.From) || math.IsInf(s.From, 0) || math.IsNaN(s.To) || math.IsInf(s.To, 0) || math.Abs(s.To-s.From) > 2*math.Pi*(1+1e-12) {
+		return &SpecError{Field: "From", Value: s.From, Err: ErrRange}
+	}
+	if s.Decimals == 0 {
+		s.Decimals = DecimalsFor(s.Tol)
+	}
+	round := RoundingAllowance(s.Decimals)
+	lo, hi := s.Zone.Limits(s.Tol)
+	lo += round
+	hi -= round
+	if s.Geometry == Arcs {
+		// A too-flat arc written as a line moves by up to another
+		// allowance (see arcs.go).
+		lo += round
+		hi -= round
+	}
+	if !(hi-lo > 0.05*s.Tol) {
+		return &SpecError{Field: "Decimals", Value: float64(s.Decimals), Limit: float64(DecimalsFor(s.Tol)), Err: ErrDecimals}
+	}
+	*a = Approximator{spec: s, f: newFrame(s.Curve), lo: lo, hi: hi, round: round}
+	// The innermost curve the path may touch must not fold.
+	if lim := e.MinRadiusOfCurvature(); -(a.f.d + lo) >= lim {
+		return &SpecError{Field: "Curve", Value: a.f.d, Limit: -lim + s.Tol, Err: ErrOffset}
+	}
+	a.sigma = 1
+	a.t = s.From
+	switch {
+	case s.To == s.From:
+		a.tEnd = s.From + 2*math.Pi
+		if s.Clockwise {
+			a.sigma = -1
+			a.tEnd = s.From - 2*math.Pi
+		}
+	default:
+		a.tEnd = s.To
+		if s.To < s.From {
+			a.sigma = -1
+		}
+	}
+	if n := a.EstimateSegments(); n > MaxSegments {
+		return &SpecError{Field: "Tol", Value: s.Tol, Limit: n, Err: ErrTooFine}
+	}
+	if s.Geometry == Arcs {
+		a.arcs.start(a)
+	}
+	return nil
+}
+
+// Spec returns the Spec with Decimals resolved.
+func (a *Approximator) Spec() Spec { return a.spec }
+
+// Decimals returns the number of decimals the writer must use for the zone
+// to hold.
+func (a *Approximator) Decimals() int { return a.spec.Decimals }
+
+// EstimateSegments returns the asymptotic minimum number of segments N*
+// for the Spec (see [LowerBound]) computed on the usable range after the
+// rounding allowance.
+func (a *Approximator) EstimateSegments() float64 {
+	return lowerBound(&a.f, a.spec.Geometry, a.hi-a.lo, a.spec.From, a.tEnd)
+}
+
+// Next returns the next segment and true, or false when the path is
+// complete. Segments are Cut motion at height Spec.Z.
+func (a *Approximator) Next() (Segment, bool) {
+	if a.done {
+		return Segment{}, false
+	}
+	var s Segment
+	var ok bool
+	if a.spec.Geometry == Arcs {
+		s, ok = a.arcs.next(a)
+	} else {
+		s, ok = a.nextLine()
+	}
+	if !ok {
+		a.done = true
+		return Segment{}, false
+	}
+	s.Motion = Cut
+	s.Start.Z, s.End.Z = a.spec.Z, a.spec.Z
+	a.n++
+	return s, true
+}
+
+// Approximate appends the whole approximation of s to dst.
+func Approximate(dst Path, s Spec) (Path, error) {
+	var a Approximator
+	if err := a.Reset(s); err != nil {
+		return dst, err
+	}
+	for seg, ok := a.Next(); ok; seg, ok = a.Next() {
+		dst = append(dst, seg)
+	}
+	return dst, nil
+}
+
+// LowerBound returns the asymptotic minimum segment count N* for
+// approximating the parameter range [from, to] of curve (to == from: the
+// whole closed curve) within the zone of half-width or width tol:
+//
+//	lines: N* = ∫ √(κ/(8w)) ds
+//	arcs:  N* = ∫ (|dκ/ds|/(96w))^(1/3) ds
+//
+// with w the total width of the zone (2·tol for a band, tol one-sided),
+// which gives ∫√(κ/(16·tol)) ds and ∫(|κ'|/(192·tol))^(1/3) ds for a band.
+// The chord error κL²/8 gives the line bounds; the best single arc
+// against a curve whose curvature changes at κ' per unit length misses by
+// κ'L³/192 either side (Chebyshev on the cubic term), so no arc spline can
+// do better than the arc bound. κ is the curvature of the curve actually
+// followed: for the parallel curve at d, κ_d = κ/(1 + dκ) and
+// dκ_d/ds_d = κ'/(1 + dκ)³.
+func LowerBound(curve ellipse.Parallel, g Geometry, zone Zone, tol, from, to float64) float64 {
+	f := newFrame(curve)
+	if to == from {
+		to = from + 2*math.Pi
+	}
+	w := tol
+	if zone == Band {
+		w = 2 * tol
+	}
+	return lowerBound(&f, g, w, from, to)
+}
+
+func lowerBound(f *frame, g Geometry, w float64, from, to float64) float64 {
+	if to < from {
+		from, to = to, from
+	}
+	// Gauss–Legendre, 4 points on each of 64 equal panels.
+	const panels = 64
+	xs := [4]float64{-0.8611363115940526, -0.3399810435848563, 0.3399810435848563, 0.8611363115940526}
+	ws := [4]float64{0.3478548451374538, 0.6521451548625461, 0.6521451548625461, 0.3478548451374538}
+	h := (to - from) / panels
+	sum := 0.0
+	for i := 0; i < panels; i++ {
+		m := from + (float64(i)+0.5)*h
+		for j := range xs {
+			t := m + xs[j]*h/2
+			ke, dke := f.ellipseCurvature(t)
+			g1 := 1 + f.d*ke
+			v := f.speed(t, f.d)
+			var x float64
+			if g == Lines {
+				x = math.Sqrt(ke / g1 / (8 * w))
+			} else {
+				x = math.Cbrt(math.Abs(dke) / (g1 * g1 * g1) / (96 * w))
+			}
+			sum += ws[j] * x * v * h / 2
+		}
+	}
+	return sum
+}
