@@ -33,28 +33,18 @@ func (w *Writer) arc(i int, s *toolpath.Segment) error {
 	if !ok {
 		return &SegmentError{Index: i, Field: "Radius", Value: s.Radius, Err: ErrArcRadius}
 	}
-	var feed int64
-	if s.Motion == toolpath.Cut {
-		if feed, err = w.feedFor(i, s, &t); err != nil {
-			return err
-		}
+	// A travel arc is unusual but legal: G0 has no arc form, so it is
+	// written as a feed move like a cut (for a laser, with the beam off).
+	feed, err := w.feedFor(i, s, &t)
+	if err != nil {
+		return err
 	}
 	w.engage(s.Motion)
 	b := w.buf
-	switch {
-	case s.Motion == toolpath.Travel:
-		// A travel arc is unusual but legal: it is still a feed move,
-		// at the cutting feed, since G0 has no arc form.
-		if feed, err = w.feedFor(i, s, &t); err != nil {
-			return err
-		}
-		fallthrough
-	default:
-		if s.Clockwise {
-			b = append(b, "G2"...)
-		} else {
-			b = append(b, "G3"...)
-		}
+	if s.Clockwise {
+		b = append(b, "G2"...)
+	} else {
+		b = append(b, "G3"...)
 	}
 	t.moveXY = true // a full circle repeats X Y
 	b = w.appendAxes(b, &t)

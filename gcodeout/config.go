@@ -209,8 +209,12 @@ func (c *Config) validate() error {
 		v    float64
 	}{{"Feed", c.Feed}, {"PlungeFeed", c.PlungeFeed}, {"RPM", c.RPM}, {"SpinUp", c.SpinUp}, {"Power", c.Power}, {"PierceDwell", c.PierceDwell}}
 	for _, f := range words {
-		if _, ok := grid(f.v, math.Pow10(wordDecimals)); !ok {
+		n, ok := grid(f.v, math.Pow10(wordDecimals))
+		if !ok {
 			return &Error{Field: f.name, Value: f.v, Limit: maxGrid / math.Pow10(wordDecimals), HasLimit: true, Err: ErrRange}
+		}
+		if n == 0 && f.v > 0 { // would print as 0
+			return &Error{Field: f.name, Value: f.v, Limit: 0.5 / math.Pow10(wordDecimals), HasLimit: true, Err: ErrRange}
 		}
 	}
 	if c.Feed == 0 {

@@ -17,10 +17,11 @@ import (
 // absorb) and 10^d is exact for d ≤ 22, so the integer, and the text, are
 // the same on every architecture.
 
-// maxGrid bounds |n|: below 2^53 every integer is exact in a float64, so
-// grid arithmetic done in floating point (radii of arcs) stays exact up to
-// the final square root.
-const maxGrid = 1 << 53
+// maxGrid bounds |n|: 10^15 is below 2^53, where every integer is exact in
+// a float64, so grid arithmetic done in floating point (radii of arcs)
+// stays exact up to the final square root. At 3 decimals it allows
+// coordinates up to 10^12 in magnitude, at 8 decimals up to 10^7.
+const maxGrid = 1e15
 
 // wordDecimals is the number of decimals of F, S and P words.
 const wordDecimals = 3
@@ -37,8 +38,8 @@ func grid(v, scale float64) (int64, bool) {
 
 // appendFixed appends n·10^-d in fixed point with trailing zeros trimmed:
 // 1500 at 3 decimals is "1.5", 2000 is "2", -5 is "-0.005", 0 is "0"
-// (never "-0"), and no exponent is ever written. |n| must be below maxGrid
-// times a small factor (any int64 other than the minimum works).
+// (never "-0"), and no exponent is ever written. Any int64 but the most
+// negative one is printed correctly.
 func appendFixed(dst []byte, n int64, d int) []byte {
 	if n == 0 {
 		return append(dst, '0')

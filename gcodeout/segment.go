@@ -30,7 +30,9 @@ import (
 // router or plotter. The writer adds no moves of its own: a move that
 // rounds to no motion at all is left out, and an arc that rounds to no XY
 // motion (sweep under half a turn) is written as its Z move alone, if any.
-// Coordinates must be finite and, in grid units, below 2^53 in magnitude.
+// An arc that travels is written as a feed move too, since G0 has no arc
+// form. Coordinates must be finite and below 10^15 units in the last place
+// in magnitude (10^12 at 3 decimals).
 //
 // Errors are *SegmentError values; a refused segment writes nothing.
 func (w *Writer) WriteSegment(s toolpath.Segment) error {
@@ -148,8 +150,11 @@ func (w *Writer) feedFor(i int, s *toolpath.Segment, t *target) (int64, error) {
 		}
 	}
 	n, ok := grid(f, math.Pow10(wordDecimals))
-	if !ok || n == 0 {
+	if !ok {
 		return 0, &SegmentError{Index: i, Field: "F", Value: f, Limit: maxGrid / math.Pow10(wordDecimals), HasLimit: true, Err: ErrRange}
+	}
+	if n == 0 { // a feed that would print as F0: give the smallest that does not
+		return 0, &SegmentError{Index: i, Field: "F", Value: f, Limit: 0.5 / math.Pow10(wordDecimals), HasLimit: true, Err: ErrRange}
 	}
 	return n, nil
 }
