@@ -1,0 +1,216 @@
+package conformance
+
+import (
+	"math"
+	"strconv"
+
+	"github.com/focitools/foci/ellipse"
+	"github.com/focitools/foci/toolpath"
+)
+
+// levelEps is how far apart two heights may be and still be one depth
+// level, in the path's unit.
+const levelEps = 1e-6
+
+// geometry is the state of the geometry rules while they walk a program.
+type geometry struct {
+	p        *Program
+	r        Rules
+	c        *collector
+	sum      *Summary
+	curve    ellipse.Parallel
+	el       ellipse.Ellipse
+	zlo, zhi float64 // the zone
+	tol      float64
+	tiny     float64 // rounding allowed at the zone's edges
+	length   float64 // of the curve
+
+	// the foot of the last end point measured, reused as the next start
+	lastX, lastY, lastT, lastD float64
+	haveLast                   bool
+
+	deepest  float64 // lowest Z of any contour move (not laser)
+	cover    []span  // final-pass coverage in program order
+	contours []contourMove
+}
+
+// contourMove is what the coverage and loop rules need of a contour move.
+type contourMove struct {
+	index   int     // into the path
+	t0, dt  float64 // foot parameter of the start and the turn to the end
+	inZone  bool    // within the zone widened by tol: counts for coverage
+	low     float64 // lowest Z
+	flat    bool    // Start.Z == End.Z
+	runID   int
+	lineNum int
+}
+
+// span is a stretch of the curve parameter cut by one or more moves.
+type span struct {
+	t0, dt float64
+	line   int // the line of the last move in it
+}
+
+// checkGeometry applies deviation, closed-loop and coverage.
+func checkGeometry(p *Program, r Rules, c *collector, sum *Summary) {
+	sh := r.Shape
+	el := sh.Curve.Ellipse()
+	if !(sh.Tol > 0) || math.IsInf(sh.Tol, 0) || !(el.SemiMajor() > 0) {
+		c.add(Violation{RuleDeviation, 0, "the intended shape has no valid curve or tolerance, so the geometry rules did not run"})
+		return
+	}
+	g := &geometry{p: p, r: r, c: c, sum: sum, curve: sh.Curve, el: el, tol: sh.Tol, length: sh.Curve.Length(), deepest: math.Inf(1)}
+	g.zlo, g.zhi = sh.Zone.Limits(sh.Tol)
+	g.tiny = 1e-9 * (el.SemiMajor() + math.Abs(sh.Curve.Offset()))
+	sum.Geometry = true
+	sum.DeviationLo, sum.DeviationHi = math.Inf(1), math.Inf(-1)
+	g.walk()
+	if sum.DeviationLo > sum.DeviationHi {
+		sum.DeviationLo, sum.DeviationHi = 0, 0
+	}
+	sum.MaxDeviation = math.Max(math.Abs(sum.DeviationLo), math.Abs(sum.DeviationHi))
+	g.loops()
+	g.coverage()
+}
+
+// atDepth reports whether segment i cuts: router below Z0, plotter at or
+// below Z0, laser with the beam on.
+func (g *geometry) atDepth(i int) bool {
+	s := &g.p.Path[i]
+	m := &g.p.Moves[i]
+	if s.Motion != toolpath.Cut || s.Kind == toolpath.Dwell {
+		return false
+	}
+	switch g.r.Machine {
+	case Laser:
+		return m.Spindle != SpindleOff && m.Speed > 0
+	case Plotter:
+		return math.Min(s.Start.Z, s.End.Z) <= levelEps
+	}
+	return math.Min(s.Start.Z, s.End.Z) < -levelEps
+}
+
+// foot returns the foot parameter and deviation of a point, reusing the
+// last one measured when it is the same point.
+func (g *geometry) foot(x, y float64) (t, d float64) {
+	if g.haveLast && x == g.lastX && y == g.lastY {
+		return g.lastT, g.lastD
+	}
+	t, d = g.el.Nearest(ellipse.Point{X: x, Y: y})
+	d -= g.curve.Offset()
+	g.lastX, g.lastY, g.lastT, g.lastD, g.haveLast = x, y, t, d, true
+	return t, d
+}
+
+// away reports whether a deviation lies farther than tol outside the zone.
+func (g *geometry) away(d float64) bool { return d < g.zlo-g.tol || d > g.zhi+g.tol }
+
+// walk classifies every move at cutting depth, checks the contour moves
+// against the zone and records what the loop and coverage rules need.
+func (g *geometry) walk() {
+	p := g.p
+	run := -1
+	inRun := false
+	for i := range p.Path {
+		s := &p.Path[i]
+		if s.Kind == toolpath.Dwell {
+			continue // a pause moves nothing and breaks no cut
+		}
+		if !g.atDepth(i) {
+			inRun = false
+			continue
+		}
+		if !inRun {
+			inRun = true
+			run++
+			g.sum.Runs++
+		}
+		if s.Kind == toolpath.Line && s.Start.X == s.End.X && s.Start.Y == s.End.Y {
+			continue // a plunge or a lift inside the cut: joins, measures nothing
+		}
+		t0, d0 := g.foot(s.Start.X, s.Start.Y)
+		lo, hi := SegmentDeviation(g.curve, *s)
+		dt := g.turn(s, t0)
+		_, d1 := g.foot(s.End.X, s.End.Y)
+		lead := false
+		switch g.r.Shape.Zone {
+		case toolpath.Outside:
+			lead = (g.away(d0) || g.away(d1)) && lo >= g.zlo-g.tiny
+		case toolpath.Inside:
+			lead = (g.away(d0) || g.away(d1)) && hi <= g.zhi+g.tiny
+		}
+		if lead {
+			g.sum.Lead++
+			continue
+		}
+		g.sum.Contour++
+		if lo == lo && hi == hi {
+			g.sum.DeviationLo = math.Min(g.sum.DeviationLo, lo)
+			g.sum.DeviationHi = math.Max(g.sum.DeviationHi, hi)
+		}
+		if lo < g.zlo-g.tiny || hi > g.zhi+g.tiny || lo != lo || hi != hi {
+			g.deviation(i, lo, hi)
+		}
+		cm := contourMove{index: i, t0: t0, dt: dt, runID: run, lineNum: p.Moves[i].Line,
+			inZone: lo >= g.zlo-g.tol && hi <= g.zhi+g.tol,
+			low:    math.Min(s.Start.Z, s.End.Z), flat: math.Abs(s.Start.Z-s.End.Z) <= levelEps}
+		if g.r.Machine == Laser {
+			cm.low, cm.flat = 0, true // the beam cuts through: one level
+		}
+		g.deepest = math.Min(g.deepest, cm.low)
+		g.contours = append(g.contours, cm)
+	}
+}
+
+func (g *geometry) deviation(i int, lo, hi float64) {
+	line := g.p.Moves[i].Line
+	if g.c.full(RuleDeviation) {
+		g.c.skip(RuleDeviation, line)
+		return
+	}
+	u := unitName(g.p)
+	msg := "the move deviates from " + fmtDev(lo) + " to " + fmtDev(hi) + u + " from the curve; the " +
+		g.r.Shape.Zone.String() + " zone allows " + fmtDev(g.zlo) + " to " + fmtDev(g.zhi) + u
+	switch {
+	case lo != lo || hi != hi:
+		msg = "the move's deviation from the curve cannot be measured (it is not finite)"
+	case hi > g.zhi+g.tiny && lo < g.zlo-g.tiny:
+		msg += " (outside by " + fmtDev(math.Max(hi-g.zhi, g.zlo-lo)) + u + ")"
+	case hi > g.zhi+g.tiny:
+		msg += " (" + fmtDev(hi-g.zhi) + u + " too far out)"
+	default:
+		msg += " (" + fmtDev(g.zlo-lo) + u + " too far in)"
+	}
+	g.c.add(Violation{RuleDeviation, line, msg})
+}
+
+// fmtDev formats a deviation briefly: six significant digits.
+func fmtDev(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
+
+// turn returns the signed change of the foot parameter along a move from
+// the foot t0 of its start, following the move with enough samples that
+// no step between them can be mistaken for more than half a turn.
+func (g *geometry) turn(s *toolpath.Segment, t0 float64) float64 {
+	n := 1
+	if l := s.Length(); g.length > 0 && l > g.length/16 {
+		n = int(math.Min(256, math.Ceil(l/(g.length/16))))
+	}
+	if s.Kind == toolpath.Arc {
+		if k := math.Ceil(math.Abs(s.Sweep()) / (math.Pi / 8)); k > float64(n) {
+			n = int(math.Min(256, k))
+		}
+	}
+	total, prev := 0.0, t0
+	for k := 1; k <= n; k++ {
+		var t float64
+		if k == n {
+			t, _ = g.foot(s.End.X, s.End.Y)
+		} else {
+			q := s.At(float64(k) / float64(n))
+			t, _ = g.el.Nearest(ellipse.Point{X: q.X, Y: q.Y})
+		}
+		total += math.Remainder(t-prev, 2*math.Pi)
+		prev = t
+	}
+	return total
+}
