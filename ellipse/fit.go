@@ -239,10 +239,10 @@ func Fit(points []Point, opts ...FitOption) (FitResult, error) {
 	res.RMS = math.Sqrt(sum / float64(n))
 	res.Coverage = fitCoverage(ts)
 	if kind := fitConicKind(free); kind != "ellipse" {
-		other := fitSampsonRMS(free, norm) * frame.s
+		other := fitConicDistanceRMS(free, norm) * frame.s
 		rms := res.RMS
 		if set.algebraicOnly {
-			rms = fitSampsonRMS(conic, norm) * frame.s
+			rms = fitConicDistanceRMS(conic, norm) * frame.s
 		}
 		if rms > 2*other+1e-9*frame.s {
 			return FitResult{}, &FitError{Err: ErrNotEllipse, Index: -1, Other: -1,

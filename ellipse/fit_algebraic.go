@@ -178,24 +178,26 @@ func fitConicKind(c [6]float64) string {
 	return "hyperbola"
 }
 
-// fitSampsonRMS returns the root-mean-square Sampson distance Q/|∇Q| of
-// the points from the conic: the first-order approximation of the
-// geometric distance (P. D. Sampson, "Fitting conic sections to 'very
-// scattered' data", Computer Graphics and Image Processing 18, 1982).
-func fitSampsonRMS(c [6]float64, pts []Point) float64 {
+// fitConicDistanceRMS returns the root mean square of a lower bound on
+// the distance of each point from the conic. Along any unit direction u,
+// Q(p + r·u) differs from Q(p) by at most |∇Q|·r + ½·h·r², h the largest
+// |eigenvalue| of the Hessian of Q (exact: Q is quadratic), so the conic is
+// no nearer than the root r = 2|Q| / (|∇Q| + √(|∇Q|² + 2h|Q|)). Where the
+// gradient is large this is Sampson's first-order distance |Q|/|∇Q|
+// (P. D. Sampson, Computer Graphics and Image Processing 18, 1982); unlike
+// it, it stays finite at the crossing of a line pair, where ∇Q = 0.
+func fitConicDistanceRMS(c [6]float64, pts []Point) float64 {
+	// Hessian [[2A, B], [B, 2C]]: eigenvalues A + C ± √((A − C)² + B²).
+	h := math.Abs(c[0]+c[2]) + math.Hypot(c[0]-c[2], c[1])
 	s := 0.0
 	for _, p := range pts {
-		q := c[0]*p.X*p.X + c[1]*p.X*p.Y + c[2]*p.Y*p.Y + c[3]*p.X + c[4]*p.Y + c[5]
-		gx := 2*c[0]*p.X + c[1]*p.Y + c[3]
-		gy := c[1]*p.X + 2*c[2]*p.Y + c[4]
-		g := math.Hypot(gx, gy)
+		q := math.Abs(c[0]*p.X*p.X + c[1]*p.X*p.Y + c[2]*p.Y*p.Y + c[3]*p.X + c[4]*p.Y + c[5])
 		if q == 0 {
 			continue
 		}
-		if g == 0 {
-			return math.Inf(1)
-		}
-		s += (q / g) * (q / g)
+		g := math.Hypot(2*c[0]*p.X+c[1]*p.Y+c[3], c[1]*p.X+2*c[2]*p.Y+c[4])
+		r := 2 * q / (g + math.Sqrt(g*g+2*h*q))
+		s += r * r
 	}
 	return math.Sqrt(s / float64(len(pts)))
 }
