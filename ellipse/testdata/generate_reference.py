@@ -22,6 +22,21 @@ digits.  Inputs are Python floats (exact doubles) written with repr(), and
 the same double is handed to mpmath, so a double-precision port sees exactly
 the same input.
 
+Layout of mpmath_reference.json (numbers are JSON numbers; null where a
+value is undefined):
+  source [string], mpmath_version [string], dps [int],
+  checks: {perimeter_rx1_ry0.5}
+  carlson: [{x, y, z, rf, rd, published?: {rf?, rd?, source}}]
+      rf = R_F(x,y,z) (null if two arguments are zero),
+      rd = R_D(x,y,z) (null if z = 0 or x = y = 0)
+  legendre_e: [{phi, m, e}]          e = E(phi|m), any real phi
+  legendre_e_complete: [{m, e}]      e = E(m)
+  ellipses: [{rx, ry, perimeter,
+              arcs: [{t0, t1, s}],
+              inverse: [{s, t}],          s(0, t) = s
+              offsets: [{d, t0, t1, s_d}],
+              curvature: [{t, kappa}]}]
+
 This file doubles as a helper module: conformance/testdata/vectors/
 generate_vectors.py imports it, so the math exists only once.
 """
@@ -287,10 +302,9 @@ def signed_distance_own(rx, ry, u1, u2, grid=2048):
     """Signed distance from (u1, u2), given in the ellipse's own frame,
     to the ellipse: + outside, - inside.  Returns (d, t_foot)."""
     rx, ry, u1, u2 = mpf(rx), mpf(ry), mpf(u1), mpf(u2)
-    lev = (u1 / rx) ** 2 + (u2 / ry) ** 2
-    sign = -1 if lev < 1 else 1
-    if lev == 1:
-        sign = 0
+    with mp.workdps(DPS + 60):       # the sign, even for points ~1e-33 off the curve
+        lev = (u1 / rx) ** 2 + (u2 / ry) ** 2 - 1
+    sign = -1 if lev < 0 else (1 if lev > 0 else 0)
     if rx == ry:                                        # circle
         dist = mpmath.hypot(u1, u2) - rx
         return dist, (mpmath.atan2(u2, u1) if (u1 or u2) else mpf(0))
