@@ -1,0 +1,214 @@
+package preview
+
+import (
+	"math"
+
+	"github.com/focitools/foci/toolpath"
+	"github.com/fogleman/gg"
+)
+
+// drawTabs draws the tab stretches hollow: a wide black line with a white
+// core, read as "the cut does not go through here".
+func (pic *picture) drawTabs() {
+	if !pic.an.hasTab {
+		return
+	}
+	pl := pic.collect(func(i int) bool { return pic.an.classes[i] == tabCut })
+	u := pic.lay.unit
+	pic.dc.SetColor(inkColor)
+	pic.strokeLayer(pl, 9*u)
+	pic.dc.SetColor(paperColor)
+	pic.strokeLayer(pl, 4.5*u)
+}
+
+// drawHoleMark draws a circled cross centred at pixel (x, y).
+func drawHoleMark(dc *gg.Context, x, y, u float64) {
+	r := 6.5 * u
+	dc.SetColor(paperColor)
+	dc.DrawCircle(x, y, r)
+	dc.Fill()
+	dc.SetColor(inkColor)
+	dc.SetLineWidth(1.8 * u)
+	dc.DrawCircle(x, y, r)
+	dc.Stroke()
+	dc.DrawLine(x-r*1.5, y, x+r*1.5, y)
+	dc.Stroke()
+	dc.DrawLine(x, y-r*1.5, x, y+r*1.5)
+	dc.Stroke()
+}
+
+// drawHoles marks every hole or mark position.
+func (pic *picture) drawHoles() {
+	for _, h := range pic.an.holes {
+		x, y := pic.lay.px(h.x, h.y)
+		drawHoleMark(pic.dc, x, y, pic.lay.unit)
+	}
+}
+
+// drawStartMark draws the ringed dot that marks where cutting starts.
+func drawStartMark(dc *gg.Context, x, y, u float64) {
+	dc.SetColor(inkColor)
+	dc.DrawCircle(x, y, 8*u)
+	dc.Fill()
+	dc.SetColor(markColor)
+	dc.DrawCircle(x, y, 5.5*u)
+	dc.Fill()
+}
+
+// drawArrow draws a filled arrowhead centred at pixel (x, y) pointing
+// along the unit pixel direction (dx, dy).
+func drawArrow(dc *gg.Context, x, y, dx, dy, u float64) {
+	l, w := 19*u, 13*u
+	nx, ny := -dy, dx
+	tx, ty := x+dx*l/2, y+dy*l/2
+	bx, by := x-dx*l/2, y-dy*l/2
+	dc.MoveTo(tx, ty)
+	dc.LineTo(bx+nx*w/2, by+ny*w/2)
+	dc.LineTo(bx-nx*w/2, by-ny*w/2)
+	dc.ClosePath()
+	dc.SetColor(markColor)
+	dc.FillPreserve()
+	dc.SetColor(inkColor)
+	dc.SetLineWidth(1.4 * u)
+	dc.Stroke()
+}
+
+// planLength returns the length of s in the XY plane.
+func planLength(s *toolpath.Segment) float64 {
+	switch s.Kind {
+	case toolpath.Line:
+		return math.Hypot(s.End.X-s.Start.X, s.End.Y-s.Start.Y)
+	case toolpath.Arc:
+		return math.Abs(s.Sweep()) * s.Radius
+	}
+	return 0
+}
+
+// direction returns the unit direction of travel of s at fraction u, in
+// path coordinates.
+func direction(s *toolpath.Segment, u float64) (float64, float64) {
+	if s.Kind == toolpath.Arc {
+		sw := s.Sweep()
+		a := math.Atan2(s.Start.Y-s.CenterY, s.Start.X-s.CenterX) + u*sw
+		if sw > 0 {
+			return -math.Sin(a), math.Cos(a)
+		}
+		return math.Sin(a), -math.Cos(a)
+	}
+	dx, dy := s.End.X-s.Start.X, s.End.Y-s.Start.Y
+	d := math.Hypot(dx, dy)
+	if d == 0 {
+		return 1, 0
+	}
+	return dx / d, dy / d
+}
+
+// arrowSpacing is the distance between direction arrows on the first loop
+// in design units.
+const arrowSpacing = 170
+
+// drawDirection marks the start of the first cut, puts arrows at equal
+// plan length along the first cut loop and two arrows on every later
+// closed loop (an inside contour may run the other way).
+func (pic *picture) drawDirection() {
+	an := pic.an
+	if !an.hasStart {
+		return
+	}
+	u := pic.lay.unit
+	tabs := pic.tabPoints()
+	for k, lp := range an.loops {
+		total := pic.loopLength(lp)
+		pxLen := total * pic.lay.scale
+		n := 2
+		if k == 0 {
+			n = max(2, min(int(math.Round(pxLen/(arrowSpacing*u))), 14))
+		}
+		if pxLen < 60*u {
+			if k > 0 {
+				continue
+			}
+			n = 1
+		}
+		pic.arrowsAlong(lp, total, n, tabs)
+	}
+	x, y := pic.lay.px(an.start.x, an.start.y)
+	drawStartMark(pic.dc, x, y, u)
+}
+
+// loopLength returns the plan length of the cutting moves in lp.
+func (pic *picture) loopLength(lp span) float64 {
+	total := 0.0
+	for i := lp.from; i < lp.to; i++ {
+		if isCut(pic.an.classes[i]) {
+			total += planLength(&pic.path[i])
+		}
+	}
+	return total
+}
+
+// tabPoints returns pixel points along the tab stretches, about every
+// 8 design units, so that arrows can keep clear of them.
+func (pic *picture) tabPoints() []point {
+	if !pic.an.hasTab {
+		return nil
+	}
+	var pts []point
+	step := 8 * pic.lay.unit
+	for i := range pic.path {
+		if pic.an.classes[i] != tabCut || len(pts) > 20000 {
+			continue
+		}
+		s := &pic.path[i]
+		n := int(math.Min(planLength(s)*pic.lay.scale/step, 1000)) + 1
+		for k := 0; k <= n; k++ {
+			q := s.At(float64(k) / float64(n))
+			x, y := pic.lay.px(q.X, q.Y)
+			pts = append(pts, point{x, y})
+		}
+	}
+	return pts
+}
+
+// nearAny reports whether (x, y) lies within r of one of pts.
+func nearAny(pts []point, x, y, r float64) bool {
+	for _, q := range pts {
+		if (q.x-x)*(q.x-x)+(q.y-y)*(q.y-y) < r*r {
+			return true
+		}
+	}
+	return false
+}
+
+// arrowsAlong draws n arrows at the middles of n equal parts of the loop,
+// each moved on along the loop where it would cover a tab mark.
+func (pic *picture) arrowsAlong(lp span, total float64, n int, tabs []point) {
+	u := pic.lay.unit
+	shiftStep := 6 * u / pic.lay.scale
+	k, walked, shift := 0, 0.0, 0.0
+	for i := lp.from; i < lp.to && k < n; i++ {
+		s := &pic.path[i]
+		if !isCut(pic.an.classes[i]) {
+			continue
+		}
+		l := planLength(s)
+		for k < n {
+			at := total*(float64(k)+0.5)/float64(n) + shift
+			if at > walked+l {
+				break
+			}
+			f := max(0, (at-walked)/l)
+			q := s.At(f)
+			x, y := pic.lay.px(q.X, q.Y)
+			if pic.an.classes[i] == tabCut || (nearAny(tabs, x, y, 20*u) && shift < total/float64(2*n)) {
+				shift += shiftStep
+				continue
+			}
+			dx, dy := direction(s, f)
+			drawArrow(pic.dc, x, y, dx, -dy, u)
+			k++
+			shift = 0
+		}
+		walked += l
+	}
+}

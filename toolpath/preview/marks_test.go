@@ -1,0 +1,228 @@
+package preview
+
+import (
+	"image/color"
+	"math"
+	"testing"
+
+	"github.com/focitools/foci/toolpath"
+)
+
+// classesOf returns the class of every segment of p.
+func classesOf(p toolpath.Path) []class { return analyse(p).classes }
+
+func TestTabsAreRaisedCutsOrRoleTab(t *testing.T) {
+	// Each case builds one unbroken run of cuts in XY at the heights
+	// given (one unit of X per move) and says which moves are tabs.
+	tests := []struct {
+		name  string
+		zs    []float64
+		roles map[int]toolpath.Role
+		want  []int // indices of tab moves among the XY moves
+	}{
+		{"one level", []float64{-5, -5, -5}, nil, nil},
+		{"passes going down are not tabs", []float64{-2, -2, -4, -4, -6, -6}, nil, nil},
+		{"raised between two deeper moves", []float64{-6, -6, -3, -3, -6}, nil, []int{2, 3}},
+		{"raised at the end is not a tab", []float64{-6, -6, -3}, nil, nil},
+		{"raised at the start is not a tab", []float64{-3, -6, -6}, nil, nil},
+		{"tab in the last of several passes", []float64{-2, -2, -4, -4, -3, -4}, nil, []int{4}},
+		{"Role Tab at the bottom", []float64{-6, -6, -6}, map[int]toolpath.Role{1: toolpath.Tab}, []int{1}},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			b := &builder{pos: toolpath.Point{Z: 5}}
+			b.feed(0, 0, tt.zs[0])
+			var xy []int
+			for i, z := range tt.zs {
+				if z != b.pos.Z {
+					b.feed(b.pos.X, b.pos.Y, z) // vertical step
+				}
+				b.feed(float64(i+1), 0, z)
+				if r, ok := tt.roles[i]; ok {
+					b.p[len(b.p)-1].Role = r
+				}
+				xy = append(xy, len(b.p)-1)
+			}
+			cls := classesOf(b.p)
+			want := map[int]bool{}
+			for _, k := range tt.want {
+				want[k] = true
+			}
+			for k, i := range xy {
+				if got := cls[i] == tabCut; got != want[k] {
+					t.Errorf("move %d at Z %v: tab %v, want %v", k, tt.zs[k], got, want[k])
+				}
+			}
+		})
+	}
+}
+
+func TestHolesArePlungesNotFollowedByCutting(t *testing.T) {
+	b := &builder{pos: toolpath.Point{Z: 5}}
+	// a drilled hole: plunge, retract
+	b.rapid(10, 10, 5)
+	b.feed(10, 10, -8)
+	b.rapid(10, 10, 5)
+	// a peck drilled hole: two plunges at one XY count once
+	b.rapid(30, 10, 5)
+	b.feed(30, 10, -4)
+	b.rapid(30, 10, 1)
+	b.feed(30, 10, -8)
+	b.rapid(30, 10, 5)
+	// a plunge that starts a contour is not a hole
+	b.rapid(50, 10, 5)
+	b.feed(50, 10, -3)
+	b.feed(60, 10, -3)
+	b.rapid(60, 10, 5)
+	// a laser mark: a dwell with the beam on
+	b.rapid(70, 10, 0)
+	b.p = append(b.p, toolpath.Segment{Kind: toolpath.Dwell, Motion: toolpath.Cut, Start: b.pos, End: b.pos, Seconds: 0.2})
+	// a dwell while travelling is not a mark
+	b.rapid(90, 10, 0)
+	b.p = append(b.p, toolpath.Segment{Kind: toolpath.Dwell, Motion: toolpath.Travel, Start: b.pos, End: b.pos, Seconds: 1})
+	// a plunge at the very end of the program
+	b.rapid(110, 10, 5)
+	b.feed(110, 10, -2)
+	got := analyse(b.p).holes
+	want := []point{{10, 10}, {30, 10}, {70, 10}, {110, 10}}
+	if len(got) != len(want) {
+		t.Fatalf("holes %v, want %v", got, want)
+	}
+	for i := range want {
+		if got[i] != want[i] {
+			t.Errorf("hole %d at %v, want %v", i, got[i], want[i])
+		}
+	}
+}
+
+func TestLoopsCloseOnThemselves(t *testing.T) {
+	p := square(nil, 0, 0, 10, -1) // segments 0..6: rapid, plunge, 4 sides, rapid
+	p = square(p, 20, 0, 10, -1)   // 7..13
+	an := analyse(p)
+	want := []span{{2, 6}, {9, 13}}
+	if len(an.loops) != len(want) {
+		t.Fatalf("loops %v, want %v", an.loops, want)
+	}
+	for i := range want {
+		if an.loops[i] != want[i] {
+			t.Errorf("loop %d is %v, want %v", i, an.loops[i], want[i])
+		}
+	}
+	if !an.hasStart || an.start != (point{0, 0}) {
+		t.Errorf("start %v (%v), want (0, 0)", an.start, an.hasStart)
+	}
+}
+
+func TestMarksAreDrawn(t *testing.T) {
+	p, _ := servingBoard(t, 720)
+	img, l := drawn(t, p, Options{ToolWidth: 6})
+	u := l.unit
+	an := analyse(p)
+	// A tab: hollow, paper in the middle of the cut line, ink on its edge.
+	var tab *toolpath.Segment
+	for i := range p {
+		if an.classes[i] == tabCut && p[i].Kind == toolpath.Line {
+			tab = &p[i]
+			break
+		}
+	}
+	if tab == nil {
+		t.Fatal("no tab found in the serving board")
+	}
+	m := tab.At(0.5)
+	if c := rgbAt(img, l, m.X, m.Y); !isWhite(c) {
+		t.Errorf("tab middle: %v, want the hollow (paper)", c)
+	}
+	dx, dy := direction(tab, 0.5)
+	px, py := l.px(m.X, m.Y)
+	edge := img.RGBAAt(int(px-dy*3.6*u), int(py-dx*3.6*u))
+	if luma(edge) > 60 {
+		t.Errorf("tab edge: %v, want ink", edge)
+	}
+	// A hole: ink at the centre (the cross), paper between cross and ring,
+	// ink on the ring.
+	for _, h := range [][2]float64{{-60, 70}, {60, 70}} {
+		x, y := l.px(h[0], h[1])
+		d := 1 / math.Sqrt2
+		if c := img.RGBAAt(int(x), int(y)); luma(c) > 80 {
+			t.Errorf("hole %v centre: %v, want ink", h, c)
+		}
+		if c := img.RGBAAt(int(x+3.5*u*d), int(y+3.5*u*d)); !isWhite(c) {
+			t.Errorf("hole %v inside the ring: %v, want paper", h, c)
+		}
+		if v := darkest(img, x+6.5*u*d, y+6.5*u*d); v > 60 {
+			t.Errorf("hole %v ring: lightness %.0f, want ink", h, v)
+		}
+	}
+	// The start: the orange dot.
+	s := p[1].End
+	if c := rgbAt(img, l, s.X, s.Y); c.R < 200 || c.G < 130 || c.G > 190 || c.B > 40 {
+		t.Errorf("start: %v, want orange", c)
+	}
+	// Arrows: orange pixels along the first loop, away from the start.
+	orange := 0
+	b := img.Bounds()
+	sx, sy := l.px(s.X, s.Y)
+	for y := b.Min.Y; y < b.Max.Y; y++ {
+		for x := b.Min.X; x < b.Max.X; x++ {
+			if math.Hypot(float64(x)-sx, float64(y)-sy) < 20*u || float64(y) > l.areaY1 {
+				continue
+			}
+			c := img.RGBAAt(x, y)
+			if c.R > 200 && c.G > 130 && c.G < 190 && c.B < 40 {
+				orange++
+			}
+		}
+	}
+	if orange < 200 {
+		t.Errorf("%d orange pixels away from the start, want arrows along the loop", orange)
+	}
+}
+
+func TestDrawingStaysClearOfTheStrips(t *testing.T) {
+	p, _ := servingBoard(t, 200)
+	for _, size := range [][2]int{{1600, 1000}, {800, 800}, {320, 240}, {3000, 1200}} {
+		img, l := drawn(t, p, Options{Width: size[0], Height: size[1], Title: "clear of the strips"})
+		minX, minY, maxX, maxY, _ := p.Bounds()
+		x0, y0 := l.px(minX, maxY)
+		x1, y1 := l.px(maxX, minY)
+		if x0 < l.areaX0-0.5 || x1 > l.areaX1+0.5 || y0 < l.areaY0-0.5 || y1 > l.areaY1+0.5 {
+			t.Errorf("%v: path box (%.0f,%.0f)-(%.0f,%.0f) outside the drawing area (%.0f,%.0f)-(%.0f,%.0f)", size, x0, y0, x1, y1, l.areaX0, l.areaY0, l.areaX1, l.areaY1)
+		}
+		// Text: something dark in the title strip and in the legend strip.
+		if !anyDark(img, 0, 0, size[0], int(l.areaY0)-4) {
+			t.Errorf("%v: nothing drawn in the title strip", size)
+		}
+		if !anyDark(img, 0, int(l.areaY1)+4, size[0], size[1]) {
+			t.Errorf("%v: nothing drawn in the legend strip", size)
+		}
+	}
+}
+
+// anyDark reports whether a pixel darker than mid grey lies in the box.
+func anyDark(img interface {
+	RGBAAt(x, y int) color.RGBA
+}, x0, y0, x1, y1 int) bool {
+	for y := y0; y < y1; y++ {
+		for x := x0; x < x1; x++ {
+			if luma(img.RGBAAt(x, y)) < 128 {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// darkest returns the lowest lightness in the 3 × 3 pixels around (x, y),
+// for thin anti-aliased lines.
+func darkest(img interface {
+	RGBAAt(x, y int) color.RGBA
+}, x, y float64) float64 {
+	v := 255.0
+	for dy := -1; dy <= 1; dy++ {
+		for dx := -1; dx <= 1; dx++ {
+			v = math.Min(v, luma(img.RGBAAt(int(x)+dx, int(y)+dy)))
+		}
+	}
+	return v
+}
