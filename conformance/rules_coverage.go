@@ -69,9 +69,10 @@ type interval struct {
 // the deepest level of all contour moves, the moves from the first to the
 // last that reach it: tabs (moves at a raised Z inside the stock) in
 // between count as cut, a ramp down before it and a lead-out after it do
-// not. For the laser every contour move is final. Contour moves that stay
-// within the zone widened by tol count; the parts of the curve none of them
-// reach, longer than tol, are reported.
+// not. For the laser every contour move is final. The stretches of the
+// curve that none of these moves reaches (by the feet of their points),
+// longer than tol, are reported; how far a contour move strays from the
+// curve is the deviation rule's business.
 func (g *geometry) coverage() {
 	cs := g.contours
 	if len(cs) == 0 {
@@ -94,9 +95,6 @@ func (g *geometry) coverage() {
 		}
 		for k := first; k >= 0 && k <= last; k++ {
 			m := &cs[k]
-			if !m.inZone {
-				continue
-			}
 			if n := len(spans); n > 0 {
 				sp := &spans[n-1]
 				if math.Abs(math.Remainder(sp.t0+sp.dt-m.t0, 2*math.Pi)) < 1e-9 && (sp.dt >= 0) == (m.dt >= 0) {

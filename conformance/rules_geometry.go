@@ -38,7 +38,6 @@ type geometry struct {
 type contourMove struct {
 	index   int     // into the path
 	t0, dt  float64 // foot parameter of the start and the turn to the end
-	inZone  bool    // within the zone widened by tol: counts for coverage
 	low     float64 // lowest Z
 	flat    bool    // Start.Z == End.Z
 	runID   int
@@ -152,8 +151,7 @@ func (g *geometry) walk() {
 			g.deviation(i, lo, hi)
 		}
 		cm := contourMove{index: i, t0: t0, dt: dt, runID: run, lineNum: p.Moves[i].Line,
-			inZone: lo >= g.zlo-g.tol && hi <= g.zhi+g.tol,
-			low:    math.Min(s.Start.Z, s.End.Z), flat: math.Abs(s.Start.Z-s.End.Z) <= levelEps}
+			low: math.Min(s.Start.Z, s.End.Z), flat: math.Abs(s.Start.Z-s.End.Z) <= levelEps}
 		if g.r.Machine == Laser {
 			cm.low, cm.flat = 0, true // the beam cuts through: one level
 		}
