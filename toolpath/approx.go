@@ -24,10 +24,13 @@ type Spec struct {
 	// zone still holds for the written numbers. 0 chooses [DecimalsFor];
 	// a negative value assumes exact coordinates.
 	Decimals int
-	// From and To are curve parameters (radians). To == From approximates
-	// the whole closed curve starting and ending at From; otherwise the
-	// open arc from From to To (clockwise when To < From).
-	From, To float64
+	// From is the curve parameter (radians) where the path starts. The
+	// whole closed curve is approximated unless Open is set.
+	From float64
+	// Open approximates only the arc from From to To (clockwise when
+	// To < From, at most one turn) instead of the closed curve.
+	Open bool
+	To   float64
 	// Clockwise runs a closed curve clockwise instead of counter-clockwise.
 	Clockwise bool
 	// Z is the height given to every segment.
@@ -45,8 +48,8 @@ var (
 	ErrTooFine   = errors.New("tolerance too fine")
 	ErrDecimals  = errors.New("too few decimals for the tolerance")
 	ErrInvalid   = errors.New("invalid curve")
-	ErrRange     = errors.New("parameter range must be finite and at most one turn")
-	ErrOffset    = errors.New("offset too far inward for the zone")
+	ErrRange     = errors.New("parameter range must be finite, not empty, and at most one turn")
+	ErrOffset    = errors.New("the zone reaches inward past the minimum radius of curvature, where the parallel curves fold: use a smaller tolerance, a smaller inward offset or the outside zone")
 )
 
 // SpecError reports a rejected Spec field.
@@ -144,7 +147,7 @@ func (a *Approximator) Reset(s Spec) error {
 	if !(e.SemiMajor() > 0) {
 		return &SpecError{Field: "Curve", Err: ErrInvalid}
 	}
-	if math.IsNaN(s.From) || math.IsInf(s.From, 0) || math.IsNaN(s.To) || math.IsInf(s.To, 0) || math.Abs(s.To-s.From) > 2*math.Pi*(1+1e-12) {
+	if math.IsNaN(s.From) || math.IsInf(s.From, 0) || math.IsNaN(s.To) || math.IsInf(s.To, 0) || (s.Open && (s.To == s.From || math.Abs(s.To-s.From) > 2*math.Pi*(1+1e-12))) {
 		return &SpecError{Field: "From", Value: s.From, Err: ErrRange}
 	}
 	if s.Decimals == 0 {
@@ -171,7 +174,7 @@ func (a *Approximator) Reset(s Spec) error {
 	a.sigma = 1
 	a.t = s.From
 	switch {
-	case s.To == s.From:
+	case !s.Open:
 		a.tEnd = s.From + 2*math.Pi
 		if s.Clockwise {
 			a.sigma = -1
@@ -272,27 +275,46 @@ func lowerBound(f *frame, g Geometry, w float64, from, to float64) float64 {
 	if to < from {
 		from, to = to, from
 	}
-	// Gauss–Legendre, 4 points on each of 64 equal panels.
-	const panels = 64
-	xs := [4]float64{-0.8611363115940526, -0.3399810435848563, 0.3399810435848563, 0.8611363115940526}
-	ws := [4]float64{0.3478548451374538, 0.6521451548625461, 0.6521451548625461, 0.3478548451374538}
-	h := (to - from) / panels
-	sum := 0.0
-	for i := 0; i < panels; i++ {
-		m := from + (float64(i)+0.5)*h
-		for j := range xs {
-			t := m + xs[j]*h/2
-			ke, dke := f.ellipseCurvature(t)
-			g1 := 1 + f.d*ke
-			v := f.speed(t, f.d)
-			var x float64
-			if g == Lines {
-				x = math.Sqrt(ke / g1 / (8 * w))
-			} else {
-				x = math.Cbrt(math.Abs(dke) / (g1 * g1 * g1) / (96 * w))
-			}
-			sum += ws[j] * x * v * h / 2
+	integrand := func(t float64) float64 {
+		ke, dke := f.ellipseCurvature(t)
+		g1 := 1 + f.d*ke
+		v := f.speed(t, f.d)
+		if g == Lines {
+			return math.Sqrt(ke/g1/(8*w)) * v
 		}
+		return math.Cbrt(math.Abs(dke)/(g1*g1*g1)/(96*w)) * v
+	}
+	// Adaptive Gauss–Legendre on each stretch between the vertices (the
+	// integrand is smooth there but sharply peaked at the tips of a flat
+	// ellipse).
+	sum := 0.0
+	q := math.Floor(from / (math.Pi / 2))
+	for lo := from; lo < to; q++ {
+		hi := math.Min(to, (q+1)*math.Pi/2)
+		if hi > lo {
+			sum += adaptiveGauss(integrand, lo, hi, gauss4(integrand, lo, hi), 1e-7, 30)
+		}
+		lo = hi
 	}
 	return sum
+}
+
+// gauss4 is the 4-point Gauss–Legendre rule on [a, b] (A&S 25.4.30).
+func gauss4(f func(float64) float64, a, b float64) float64 {
+	const (
+		x1, x2 = 0.8611363115940526, 0.3399810435848563
+		w1, w2 = 0.3478548451374538, 0.6521451548625461
+	)
+	m, h := 0.5*(a+b), 0.5*(b-a)
+	return h * (w1*(f(m-x1*h)+f(m+x1*h)) + w2*(f(m-x2*h)+f(m+x2*h)))
+}
+
+// adaptiveGauss refines whole when the two halves disagree with it.
+func adaptiveGauss(f func(float64) float64, a, b, whole, tol float64, depth int) float64 {
+	m := 0.5 * (a + b)
+	l, r := gauss4(f, a, m), gauss4(f, m, b)
+	if depth <= 0 || math.Abs(l+r-whole) <= tol*math.Abs(l+r) {
+		return l + r
+	}
+	return adaptiveGauss(f, a, m, l, tol, depth-1) + adaptiveGauss(f, m, b, r, tol, depth-1)
 }

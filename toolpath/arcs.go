@@ -31,7 +31,7 @@ type ellipsePoint = ellipse.Point
 
 const (
 	arcSamples   = 8
-	maxSamples   = 96
+	maxSamples   = 128
 	devMiss      = 0.002
 	arcTarget    = 0.997 // aim at this fraction of the usable half-width
 	arcAccept    = 0.985 // accept anything in [arcAccept, 1]
@@ -63,56 +63,114 @@ func (s *arcState) start(a *Approximator) {
 	p, tg, _ := f.at(a.spec.From, f.d+m)
 	*s = arcState{p: p, tan: tg.scale(a.sigma), tp: a.spec.From, dev: m}
 	q, tq, _ := f.at(a.tEnd, f.d+m)
-	if a.spec.To == a.spec.From {
+	if !a.spec.Open {
 		q = p
 	}
 	s.p0, s.t0 = q, tq.scale(a.sigma)
 }
 
-// circleDev returns λ(t) for the circle through p with tangent tg and
-// signed curvature k (or the line when k == 0), measured from the intended
-// curve; NaN when the normal line misses the circle.
-func (f *frame) circleDev(t float64, p, tg vec, k float64) float64 {
-	q, _, n := f.at(t, f.d)
-	nl := tg.left()
+// arcGeom is a candidate arc (or line) ready for deviation sampling.
+type arcGeom struct {
+	line  bool
+	p, nl vec     // start and its left normal (lines)
+	c     vec     // centre
+	r     float64 // radius
+	sv    vec     // start − centre
+	dir   float64 // +1 counter-clockwise, −1 clockwise
+	sweep float64 // turning from start to end, in (0, 2π]
+}
+
+// newArcGeom describes the arc from p with tangent tg and signed
+// curvature k that ends at q (k == 0: the line from p along tg).
+func newArcGeom(p, tg vec, k float64, q vec) arcGeom {
+	g := arcGeom{p: p, nl: tg.left()}
 	if k == 0 {
-		den := n.dot(nl)
+		g.line = true
+		return g
+	}
+	g.c = p.addScaled(g.nl, 1/k)
+	g.r = math.Abs(1 / k)
+	g.sv = p.sub(g.c)
+	g.dir = math.Copysign(1, k)
+	g.sweep = g.angle(q.sub(g.c))
+	if g.sweep == 0 {
+		g.sweep = 2 * math.Pi
+	}
+	return g
+}
+
+// angle returns the turning from the start to the direction w about the
+// centre, in the arc's direction, in [0, 2π).
+func (g *arcGeom) angle(w vec) float64 {
+	a := g.dir * math.Atan2(g.sv.cross(w), g.sv.dot(w))
+	if a < 0 {
+		a += 2 * math.Pi
+	}
+	return a
+}
+
+// circleDev returns λ(t): where the normal line of the intended curve at
+// t meets the arc (or line), as a signed distance from the curve; NaN when
+// the normal misses the arc. Of the two crossings with the full circle the
+// one on the arc is taken (nearest the curve if both are).
+func (f *frame) circleDev(t float64, g *arcGeom) float64 {
+	q, _, n := f.at(t, f.d)
+	if g.line {
+		den := n.dot(g.nl)
 		if den == 0 {
 			return math.NaN()
 		}
-		return p.sub(q).dot(nl) / den
+		return g.p.sub(q).dot(g.nl) / den
 	}
-	c := p.addScaled(nl, 1/k)
-	r := math.Abs(1 / k)
-	w := q.sub(c)
+	w := q.sub(g.c)
 	b := n.dot(w)
 	wl := w.norm()
-	cc := (wl - r) * (wl + r)
+	cc := (wl - g.r) * (wl + g.r)
 	disc := b*b - cc
 	if disc < 0 {
 		return math.NaN()
 	}
-	return -cc / (b + math.Copysign(math.Sqrt(disc), b))
+	sq := math.Sqrt(disc)
+	l1 := -cc / (b + math.Copysign(sq, b)) // nearest zero
+	l2 := -b - math.Copysign(sq, b)        // the other crossing
+	slack := 1e-9
+	if g.angle(w.addScaled(n, l1)) <= g.sweep+slack {
+		return l1
+	}
+	if g.angle(w.addScaled(n, l2)) <= g.sweep+slack {
+		return l2
+	}
+	return math.NaN()
 }
 
-// devRange returns the extremes of the deviation of the circle (p, tg, k)
-// over feet in [t0, t1], given the deviations d0 and d1 at the ends.
+// devRange returns the extremes of the deviation of the arc g over feet
+// in [t0, t1], given the deviations d0 and d1 at the ends.
 //
 // The number of samples follows from the curvature: along the arc the
-// deviation δ has δ” ≈ κ − k (κ the curve's, k the arc's), so between
-// samples h apart a missed extreme is at most |κ − k|·h²/8. Samples are
-// placed so that this is below devMiss of the zone's half-width, between
-// arcSamples and maxSamples of them, and the extremes are then refined by
-// a parabola through the neighbours.
-func (a *Approximator) devRange(t0, t1, d0, d1 float64, p, tg vec, k float64) (lo, hi float64) {
+// deviation δ has δ'' ≈ κ − k (κ the curve's, k the arc's), so between
+// samples h apart in arc length a missed extreme is at most |κ − k|·h²/8.
+// Samples are placed so that this is below devMiss of the zone's
+// half-width (between arcSamples and maxSamples of them). Uniform steps in
+// the parameter t crowd the flat stretches of a flat ellipse and starve its
+// tips, and uniform steps in the normal angle do the opposite, so both
+// grids are used and merged in order; the extremes are then refined by a
+// parabola through the neighbours.
+func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi float64) {
 	f := &a.f
-	var v [maxSamples + 2]float64
-	km, _ := f.curvature(0.5*(t0+t1), f.d)
-	k0, _ := f.curvature(t0, f.d)
-	k1, _ := f.curvature(t1, f.d)
-	ak := math.Abs(k)
-	dd := math.Max(math.Abs(km-ak), math.Max(math.Abs(k0-ak), math.Abs(k1-ak)))
-	length := math.Abs(t1-t0) * f.speed(0.5*(t0+t1), f.d)
+	k := 0.0
+	if !g.line {
+		k = 1 / g.r
+	}
+	kmin, kmax := f.curvatureRange(t0, t1)
+	dd := math.Max(math.Abs(kmax-k), math.Abs(kmin-k))
+	// The arc's points sit on the curve's normals up to the zone's edge,
+	// where a step along the curve covers (1 + |edge|·κ) times the length.
+	edge := math.Max(math.Abs(a.lo), math.Abs(a.hi))
+	c, err := f.e.Parallel(f.d + edge)
+	length := math.Abs(f.e.ArcLength(t0, t1)) * (1 + f.d*kmax + edge*kmax)
+	if err == nil {
+		length = math.Abs(c.ArcLength(t0, t1))
+	}
 	half := 0.5 * (a.hi - a.lo)
 	n := arcSamples
 	if dd > 0 {
@@ -121,18 +179,19 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, p, tg vec, k float64) (l
 			n = int(math.Min(x+1, maxSamples))
 		}
 	}
-	v[0], v[n+1] = d0, d1
-	step := (t1 - t0) / float64(n+1)
+	var ts, v [2*maxSamples + 2]float64
+	m := f.mergedGrid(t0, t1, n, ts[:0])
 	lo, hi = math.Min(d0, d1), math.Max(d0, d1)
-	for j := 1; j <= n; j++ {
-		x := f.circleDev(t0+float64(j)*step, p, tg, k)
+	v[0], v[m-1] = d0, d1
+	for j := 1; j < m-1; j++ {
+		x := f.circleDev(ts[j], g)
 		if math.IsNaN(x) {
 			return math.Inf(-1), math.Inf(1)
 		}
 		v[j] = x
 	}
 	jmax, jmin := 0, 0
-	for j := 1; j <= n+1; j++ {
+	for j := 1; j < m; j++ {
 		if v[j] > v[jmax] {
 			jmax = j
 		}
@@ -140,24 +199,103 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, p, tg vec, k float64) (l
 			jmin = j
 		}
 	}
-	lo = math.Min(lo, refineExtreme(v[:n+2], jmin))
-	hi = math.Max(hi, refineExtreme(v[:n+2], jmax))
+	lo = math.Min(lo, refineExtreme(ts[:m], v[:m], jmin))
+	hi = math.Max(hi, refineExtreme(ts[:m], v[:m], jmax))
 	return lo, hi
 }
 
+// curvatureRange returns the smallest and largest curvature of the
+// intended curve over [t0, t1] (either order): the ellipse's curvature is
+// monotone between its vertices at multiples of π/2, so the ends and the
+// vertices inside decide.
+func (f *frame) curvatureRange(t0, t1 float64) (lo, hi float64) {
+	if t1 < t0 {
+		t0, t1 = t1, t0
+	}
+	k0, _ := f.curvature(t0, f.d)
+	k1, _ := f.curvature(t1, f.d)
+	lo, hi = math.Min(k0, k1), math.Max(k0, k1)
+	for q := math.Ceil(t0 / (math.Pi / 2)); q*(math.Pi/2) <= t1 && q < math.Ceil(t0/(math.Pi/2))+5; q++ {
+		kq, _ := f.curvature(q*(math.Pi/2), f.d)
+		lo, hi = math.Min(lo, kq), math.Max(hi, kq)
+	}
+	return lo, hi
+}
+
+// normalAngle returns the continuous angle ν(t) of the ellipse's normal in
+// its own frame: tan ν = (rx/ry)·tan t, ν(t + π) = ν(t) + π.
+func (f *frame) normalAngle(t float64) float64 {
+	n := math.Round(t / math.Pi)
+	r := t - n*math.Pi
+	s, c := math.Sincos(r)
+	return math.Atan2(f.rx*s, f.ry*c) + n*math.Pi
+}
+
+// paramAtNormal inverts normalAngle.
+func (f *frame) paramAtNormal(nu float64) float64 {
+	n := math.Round(nu / math.Pi)
+	r := nu - n*math.Pi
+	s, c := math.Sincos(r)
+	return math.Atan2(f.ry*s, f.rx*c) + n*math.Pi
+}
+
+// mergedGrid appends to dst the parameters t0, then n steps uniform in t
+// merged in order with n steps uniform in the normal angle, then t1, and
+// returns the count.
+func (f *frame) mergedGrid(t0, t1 float64, n int, dst []float64) int {
+	nu0, nu1 := f.normalAngle(t0), f.normalAngle(t1)
+	dst = append(dst, t0)
+	ht := (t1 - t0) / float64(n+1)
+	hn := (nu1 - nu0) / float64(n+1)
+	i, j := 1, 1
+	up := t1 > t0
+	var nt float64
+	haveN := false
+	for i <= n || j <= n {
+		if !haveN && j <= n {
+			nt = f.paramAtNormal(nu0 + float64(j)*hn)
+			haveN = true
+		}
+		tt := t0 + float64(i)*ht
+		if j > n || (i <= n && (tt < nt) == up) {
+			dst = append(dst, tt)
+			i++
+		} else {
+			if (nt-t0)*(t1-nt) > 0 {
+				dst = append(dst, nt)
+			}
+			j++
+			haveN = false
+		}
+	}
+	dst = append(dst, t1)
+	return len(dst)
+}
+
 // refineExtreme returns the extreme of the parabola through the sample at
-// j and its neighbours (or the sample itself at an end).
-func refineExtreme(v []float64, j int) float64 {
+// j and its neighbours (or the sample itself at an end); x holds the
+// sample positions.
+func refineExtreme(x, v []float64, j int) float64 {
 	if j == 0 || j == len(v)-1 {
 		return v[j]
 	}
-	a, b, c := v[j-1], v[j], v[j+1]
-	den := a - 2*b + c
-	if den == 0 {
-		return b
+	x0, x1, x2 := x[j-1]-x[j], 0.0, x[j+1]-x[j]
+	y0, y1, y2 := v[j-1], v[j], v[j+1]
+	// Divided differences: p(x) = y1 + b·x + c·x².
+	d01 := (y1 - y0) / (x1 - x0)
+	d12 := (y2 - y1) / (x2 - x1)
+	c := (d12 - d01) / (x2 - x0)
+	b := d01 - c*x0 // derivative at x1 = 0: d01 + c·(x1 − x0) with x1 = 0
+	if c == 0 || math.IsNaN(c) || math.IsInf(c, 0) {
+		return y1
 	}
-	x := 0.5 * (a - c) / den // vertex offset in samples, |x| ≤ 1/2
-	return b - 0.25*(a-c)*x
+	xv := -b / (2 * c)
+	if xv < x0 || xv > x2 {
+		if xv < math.Min(x0, x2) || xv > math.Max(x0, x2) {
+			return y1
+		}
+	}
+	return y1 + b*xv + c*xv*xv
 }
 
 // arcTo returns the signed curvature of the arc from p with tangent tg
@@ -211,7 +349,8 @@ func (a *Approximator) try(s *arcState, t1 float64) trial {
 			return tr
 		}
 	}
-	lo, hi := a.devRange(s.tp, t1, s.dev, tr.dev1, s.p, s.tan, tr.k)
+	g := newArcGeom(s.p, s.tan, tr.k, tr.q)
+	lo, hi := a.devRange(s.tp, t1, s.dev, tr.dev1, &g)
 	tr.ratio = math.Max((hi-m)/(a.hi-m), (m-lo)/(m-a.lo))
 	return tr
 }
@@ -255,12 +394,14 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	var best trial
 	best.ratio = math.Inf(1)
 	bestDt := 0.0
+	// A step never reaches the end: the end is the closing biarcs' job.
+	maxDt := 0.5 * remaining
 	for i := 0; i < arcMaxSteps; i++ {
-		dt = math.Min(dt, remaining)
+		dt = math.Min(dt, maxDt)
 		tr := a.try(s, s.tp+a.sigma*dt)
 		if tr.ratio <= 1 && dt > bestDt {
 			best, bestDt = tr, dt
-			if tr.ratio >= arcAccept || dt >= remaining {
+			if tr.ratio >= arcAccept || dt >= maxDt {
 				break
 			}
 		}
@@ -335,9 +476,11 @@ func (s *arcState) closeFits(a *Approximator, n int) bool {
 			return false
 		}
 		devJ := a.f.e.SignedDistance(ptOf(j)) - a.f.d
-		lo1, hi1 := a.devRange(tp, tj, dev, devJ, p, tg, a1)
+		g1 := newArcGeom(p, tg, a1, j)
+		lo1, hi1 := a.devRange(tp, tj, dev, devJ, &g1)
 		_, jt := arcEndTangent(p, tg, a1, j)
-		lo2, hi2 := a.devRange(tj, t1, devJ, a.mid(), j, jt, a2)
+		g2 := newArcGeom(j, jt, a2, q)
+		lo2, hi2 := a.devRange(tj, t1, devJ, a.mid(), &g2)
 		if math.Min(lo1, lo2) < a.lo || math.Max(hi1, hi2) > a.hi {
 			return false
 		}
@@ -374,19 +517,10 @@ func (a *Approximator) biarc(p0, t0, p1, t1 vec, ref float64) (k1, k2 float64, j
 	vt := v.dot(tt)
 	c := t0.dot(t1)
 	vv := v.dot(v)
-	var alpha float64
-	if den := 2 * (1 - c); den < 1e-12 {
-		if vt <= 0 {
-			return 0, 0, vec{}, 0, false
-		}
-		alpha = vv / (2 * vt)
-	} else {
-		disc := vt*vt + den*vv
-		alpha = (-vt + math.Sqrt(disc)) / (-den)
-		if alpha <= 0 {
-			alpha = (vt + math.Sqrt(disc)) / den
-		}
-	}
+	// α solves 2(1 − t0·t1)α² + 2(v·(t0+t1))α − v·v = 0; the positive root,
+	// rationalised so that parallel tangents (t0·t1 = 1) need no case.
+	den := 2 * (1 - c)
+	alpha := vv / (vt + math.Sqrt(vt*vt+den*vv))
 	if !(alpha > 0) || math.IsInf(alpha, 0) {
 		return 0, 0, vec{}, 0, false
 	}

@@ -58,25 +58,38 @@ func (a *Approximator) nextLine() (Segment, bool) {
 	}
 	remaining := math.Abs(a.tEnd - t0)
 	dt = math.Min(dt, math.Min(remaining, math.Pi/2))
-	best := 0.0
-	for i := 0; i < 8; i++ {
-		s := f.sag(t0, t0+a.sigma*dt, off)
-		r := s / h
+	// Longest step whose sag fits: model steps (sag ∝ step²) kept inside
+	// a bracket [feasible, infeasible], with bisection when the model
+	// leaves it (the sag is far from quadratic where a flat stretch meets
+	// a tight tip).
+	best, bad := 0.0, math.Inf(1)
+	for i := 0; i < 16; i++ {
+		r := f.sag(t0, t0+a.sigma*dt, off) / h
 		if r <= 1 {
-			best = math.Max(best, dt)
+			best = dt
 			if r >= lineAccept || dt >= remaining {
 				break
 			}
+		} else {
+			bad = dt
 		}
 		next := dt * math.Sqrt(lineTarget/math.Max(r, 1e-12))
-		if r > 1 {
-			next = math.Min(next, dt*0.999)
+		next = math.Min(next, math.Min(remaining, math.Pi/2))
+		if !(next > best && next < bad) {
+			if math.IsInf(bad, 1) {
+				next = math.Min(2*dt, math.Min(remaining, math.Pi/2))
+			} else {
+				next = 0.5 * (best + bad)
+			}
 		}
-		dt = math.Min(next, math.Min(remaining, math.Pi/2))
+		if next == dt {
+			break
+		}
+		dt = next
 	}
 	if best == 0 {
 		// Shrink until it fits: the sag falls with the square of the step.
-		dt *= 0.5
+		dt = bad * 0.5
 		for f.sag(t0, t0+a.sigma*dt, off) > h {
 			dt *= 0.5
 		}
@@ -89,7 +102,7 @@ func (a *Approximator) nextLine() (Segment, bool) {
 	}
 	p0, _, _ := f.at(t0, off)
 	p1, _, _ := f.at(t1, off)
-	if a.spec.To == a.spec.From && t1 == a.tEnd {
+	if !a.spec.Open && t1 == a.tEnd {
 		// Close exactly on the first vertex.
 		p1, _, _ = f.at(a.spec.From, off)
 	}

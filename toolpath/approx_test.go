@@ -1,0 +1,229 @@
+package toolpath
+
+import (
+	"errors"
+	"math"
+	"testing"
+
+	"github.com/focitools/foci/ellipse"
+	"pgregory.net/rapid"
+)
+
+// deviationRange measures the signed deviation of segment s from curve c
+// with the exact signed distance (ellipse.SignedDistance less the offset):
+// 16 even samples, then a golden-section search around the extreme
+// samples, which puts the measured extremes within far less than 1% of
+// the true ones for the smooth deviation of a segment along a convex curve.
+func deviationRange(c ellipse.Parallel, s Segment) (lo, hi float64) {
+	e := c.Ellipse()
+	dev := func(u float64) float64 {
+		p := s.At(u)
+		return e.SignedDistance(ellipse.Point{X: p.X, Y: p.Y}) - c.Offset()
+	}
+	const n = 16
+	var v [n + 1]float64
+	jlo, jhi := 0, 0
+	for j := 0; j <= n; j++ {
+		v[j] = dev(float64(j) / n)
+		if v[j] < v[jlo] {
+			jlo = j
+		}
+		if v[j] > v[jhi] {
+			jhi = j
+		}
+	}
+	refine := func(j int, sign float64) float64 {
+		a := math.Max(0, float64(j-1)/n)
+		b := math.Min(1, float64(j+1)/n)
+		best := sign * v[j]
+		for i := 0; i < 24; i++ {
+			m1 := a + (b-a)*0.381966
+			m2 := a + (b-a)*0.618034
+			f1, f2 := sign*dev(m1), sign*dev(m2)
+			best = math.Max(best, math.Max(f1, f2))
+			if f1 > f2 {
+				b = m2
+			} else {
+				a = m1
+			}
+		}
+		return sign * best
+	}
+	return refine(jlo, -1), refine(jhi, 1)
+}
+
+// roundSeg rounds the coordinates of s as a writer with the given decimals
+// would, keeping an arc's radius as the distance from the rounded start to
+// the rounded centre. At interpolates the radius from start to end.
+func roundSeg(s Segment, decimals int) Segment {
+	p := math.Pow(10, float64(decimals))
+	r := func(x float64) float64 { return math.Round(x*p) / p }
+	s.Start.X, s.Start.Y = r(s.Start.X), r(s.Start.Y)
+	s.End.X, s.End.Y = r(s.End.X), r(s.End.Y)
+	if s.Kind == Arc {
+		s.CenterX, s.CenterY = r(s.CenterX), r(s.CenterY)
+		s.Radius = math.Hypot(s.Start.X-s.CenterX, s.Start.Y-s.CenterY)
+	}
+	return s
+}
+
+// randomSpec draws a spec over the ranges the approximators promise:
+// semi-major 0.05 mm to 2.5 m, b/a from 1e-3 to 1, any rotation and centre,
+// tolerance 1e-4 to 1e-1 of the semi-minor axis (and at most 1), offsets
+// from well inside the fold limit to a semi-major outward, every zone and
+// geometry.
+func randomSpec(t *rapid.T) Spec {
+	a := math.Pow(10, rapid.Float64Range(math.Log10(0.05), math.Log10(2500)).Draw(t, "log a"))
+	ratio := math.Pow(10, rapid.Float64Range(-3, 0).Draw(t, "log b/a"))
+	b := a * ratio
+	rot := rapid.Float64Range(-4, 4).Draw(t, "rotation")
+	cx := rapid.Float64Range(-1000, 1000).Draw(t, "cx")
+	cy := rapid.Float64Range(-1000, 1000).Draw(t, "cy")
+	swap := rapid.Bool().Draw(t, "major along own y")
+	rx, ry := a, b
+	if swap {
+		rx, ry = b, a
+	}
+	e, err := ellipse.New(ellipse.Point{X: cx, Y: cy}, rx, ry, rot)
+	if err != nil {
+		t.Fatalf("New: %v", err)
+	}
+	tol := math.Min(1, b*math.Pow(10, rapid.Float64Range(-4, -1).Draw(t, "log tol/b")))
+	tol = math.Max(tol, 1e-4)
+	lim := e.MinRadiusOfCurvature()
+	var d float64
+	switch rapid.IntRange(0, 2).Draw(t, "offset kind") {
+	case 1:
+		d = rapid.Float64Range(0, a).Draw(t, "outward")
+	case 2:
+		d = -rapid.Float64Range(0, 0.8).Draw(t, "inward fraction") * math.Max(0, lim-2*tol)
+	}
+	c, err := e.Parallel(d)
+	if err != nil {
+		t.Fatalf("Parallel(%g): %v", d, err)
+	}
+	zone := Zone(rapid.IntRange(0, 2).Draw(t, "zone"))
+	if zone != Outside && -(d-1.05*tol) >= lim {
+		// The zone's inner edge would fold: only an outside zone is sound.
+		zone = Outside
+	}
+	return Spec{
+		Curve:    c,
+		Zone:     zone,
+		Tol:      tol,
+		Geometry: Geometry(rapid.IntRange(0, 1).Draw(t, "geometry")),
+		From:     rapid.Float64Range(-7, 7).Draw(t, "from"),
+	}
+}
+
+func TestApproximationStaysInZoneClosedTangentContinuous(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		s := randomSpec(t)
+		a, err := NewApproximator(s)
+		if err != nil {
+			if errors.Is(err, ErrTooFine) {
+				t.Skip("too fine")
+			}
+			t.Fatalf("NewApproximator(%+v): %v", s, err)
+		}
+		var path Path
+		for seg, ok := a.Next(); ok; seg, ok = a.Next() {
+			path = append(path, seg)
+		}
+		if len(path) == 0 {
+			t.Fatal("no segments")
+		}
+		lo, hi := s.Zone.Limits(s.Tol)
+		scale := s.Curve.Ellipse().SemiMajor() + math.Abs(s.Curve.Offset())
+		joinTol := 1e-9 * scale
+		turning := 0.0
+		for i, seg := range path {
+			if seg.Motion != Cut {
+				t.Fatalf("segment %d: motion %v", i, seg.Motion)
+			}
+			for _, sg := range []Segment{seg, roundSeg(seg, a.Decimals())} {
+				dlo, dhi := deviationRange(s.Curve, sg)
+				if dlo < lo || dhi > hi {
+					t.Fatalf("segment %d of %d (%v): deviation [%g, %g] outside zone [%g, %g] (tol %g)", i, len(path), sg.Kind, dlo, dhi, lo, hi, s.Tol)
+				}
+			}
+			next := path[(i+1)%len(path)]
+			if d := math.Hypot(seg.End.X-next.Start.X, seg.End.Y-next.Start.Y); d > joinTol {
+				t.Fatalf("segment %d ends %g away from the next start", i, d)
+			}
+			if seg.Kind == Arc {
+				r0 := math.Hypot(seg.Start.X-seg.CenterX, seg.Start.Y-seg.CenterY)
+				r1 := math.Hypot(seg.End.X-seg.CenterX, seg.End.Y-seg.CenterY)
+				rtol := 1e-9*seg.Radius + 8*0x1p-52*(math.Abs(seg.CenterX)+math.Abs(seg.CenterY)+seg.Radius)
+				if math.Abs(r0-seg.Radius) > rtol || math.Abs(r1-seg.Radius) > rtol {
+					t.Fatalf("segment %d: radius %g, start %g, end %g", i, seg.Radius, r0, r1)
+				}
+				turning += seg.Sweep()
+			}
+			// Turning at the join and, for arcs, tangent continuity.
+			_, t1 := segTangents(seg)
+			t0n, _ := segTangents(next)
+			kink := math.Atan2(t1.cross(t0n), t1.dot(t0n))
+			turning += kink
+			// The tangents are read back from float64 ends and centres, so a
+			// small arc far from the origin carries a representation error of
+			// a few ulps of the coordinates over its radius.
+			kinkTol := 1e-9
+			for _, sg := range []Segment{seg, next} {
+				if sg.Kind == Arc {
+					kinkTol += 8 * 0x1p-52 * (math.Abs(sg.CenterX) + math.Abs(sg.CenterY) + sg.Radius) / sg.Radius
+				}
+			}
+			if s.Geometry == Arcs && math.Abs(kink) > kinkTol {
+				t.Fatalf("join after segment %d of %d: tangent kink %g rad", i, len(path), kink)
+			}
+		}
+		if math.Abs(math.Abs(turning)-2*math.Pi) > 1e-6 {
+			t.Fatalf("total turning %g, want ±2π (winds once)", turning)
+		}
+		if (turning < 0) != s.Clockwise {
+			t.Fatalf("turning %g with Clockwise %v", turning, s.Clockwise)
+		}
+	})
+}
+
+// segTangents returns the unit tangents at the start and end of s.
+func segTangents(s Segment) (vec, vec) {
+	if s.Kind == Line {
+		d := vec{s.End.X - s.Start.X, s.End.Y - s.Start.Y}
+		d = d.scale(1 / d.norm())
+		return d, d
+	}
+	sign := 1.0
+	if s.Clockwise {
+		sign = -1
+	}
+	r0 := vec{s.Start.X - s.CenterX, s.Start.Y - s.CenterY}.left().scale(sign / s.Radius)
+	r1 := vec{s.End.X - s.CenterX, s.End.Y - s.CenterY}.left().scale(sign / s.Radius)
+	return r0, r1
+}
+
+func TestSegmentCountsNearTheLowerBound(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		s := randomSpec(t)
+		s.Decimals = -1 // compare the algorithm with the bound, not the rounding
+		// N* is asymptotic (tol → 0): hold it to the bound where the
+		// tolerance is small beside the tightest radius of the curve.
+		if rho := s.Curve.Ellipse().MinRadiusOfCurvature() + s.Curve.Offset(); s.Tol > 0.05*rho {
+			s.Tol = 0.05 * rho
+		}
+		p, err := Approximate(nil, s)
+		if err != nil {
+			t.Skip(err.Error())
+		}
+		nstar := LowerBound(s.Curve, s.Geometry, s.Zone, s.Tol, 0, 0)
+		n := float64(len(p))
+		limit := 1.03*nstar + 3
+		if s.Geometry == Arcs {
+			limit = 2.0*nstar + 4
+		}
+		if n > limit {
+			t.Fatalf("%v %v tol %g: %d segments, N* = %.2f, limit %.2f", s.Geometry, s.Zone, s.Tol, len(p), nstar, limit)
+		}
+	})
+}
