@@ -147,7 +147,7 @@ func (f *frame) circleDev(t float64, g *arcGeom) float64 {
 // in [t0, t1], given the deviations d0 and d1 at the ends.
 //
 // The number of samples follows from the curvature: along the arc the
-// deviation δ has δ'' ≈ κ − k (κ the curve's, k the arc's), so between
+// deviation δ has δ” ≈ κ − k (κ the curve's, k the arc's), so between
 // samples h apart in arc length a missed extreme is at most |κ − k|·h²/8.
 // Samples are placed so that this is below devMiss of the zone's
 // half-width (between arcSamples and maxSamples of them). Uniform steps in
