@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"github.com/focitools/foci/toolpath"
+	"github.com/focitools/foci/toolpath/internal/plan"
 	"github.com/fogleman/gg"
 )
 
@@ -13,7 +14,7 @@ func (pic *picture) drawTabs() {
 	if !pic.an.hasTab {
 		return
 	}
-	pl := pic.collect(func(i int) bool { return pic.an.classes[i] == tabCut })
+	pl := pic.collect(func(i int) bool { return pic.an.classes[i] == plan.Tab })
 	u := pic.lay.unit
 	pic.dc.SetColor(inkColor)
 	pic.strokeLayer(pl, 9*u)
@@ -40,7 +41,7 @@ func drawHoleMark(dc *gg.Context, x, y, u float64) {
 // drawHoles marks every hole or mark position.
 func (pic *picture) drawHoles() {
 	for _, h := range pic.an.holes {
-		x, y := pic.lay.px(h.x, h.y)
+		x, y := pic.lay.px(h.X, h.Y)
 		drawHoleMark(pic.dc, x, y, pic.lay.unit)
 	}
 }
@@ -132,7 +133,7 @@ func (pic *picture) drawDirection() {
 		}
 		pic.arrowsAlong(lp, total, n, tabs)
 	}
-	x, y := pic.lay.px(an.start.x, an.start.y)
+	x, y := pic.lay.px(an.start.X, an.start.Y)
 	drawStartMark(pic.dc, x, y, u)
 }
 
@@ -140,7 +141,7 @@ func (pic *picture) drawDirection() {
 func (pic *picture) loopLength(lp span) float64 {
 	total := 0.0
 	for i := lp.from; i < lp.to; i++ {
-		if isCut(pic.an.classes[i]) {
+		if pic.an.classes[i].Cuts() {
 			total += planLength(&pic.path[i])
 		}
 	}
@@ -149,14 +150,14 @@ func (pic *picture) loopLength(lp span) float64 {
 
 // tabPoints returns pixel points along the tab stretches, about every
 // 8 design units, so that arrows can keep clear of them.
-func (pic *picture) tabPoints() []point {
+func (pic *picture) tabPoints() []plan.Point {
 	if !pic.an.hasTab {
 		return nil
 	}
-	var pts []point
+	var pts []plan.Point
 	step := 8 * pic.lay.unit
 	for i := range pic.path {
-		if pic.an.classes[i] != tabCut || len(pts) > 20000 {
+		if pic.an.classes[i] != plan.Tab || len(pts) > 20000 {
 			continue
 		}
 		s := &pic.path[i]
@@ -164,16 +165,16 @@ func (pic *picture) tabPoints() []point {
 		for k := 0; k <= n; k++ {
 			q := s.At(float64(k) / float64(n))
 			x, y := pic.lay.px(q.X, q.Y)
-			pts = append(pts, point{x, y})
+			pts = append(pts, plan.Point{X: x, Y: y})
 		}
 	}
 	return pts
 }
 
 // nearAny reports whether (x, y) lies within r of one of pts.
-func nearAny(pts []point, x, y, r float64) bool {
+func nearAny(pts []plan.Point, x, y, r float64) bool {
 	for _, q := range pts {
-		if (q.x-x)*(q.x-x)+(q.y-y)*(q.y-y) < r*r {
+		if (q.X-x)*(q.X-x)+(q.Y-y)*(q.Y-y) < r*r {
 			return true
 		}
 	}
@@ -182,13 +183,13 @@ func nearAny(pts []point, x, y, r float64) bool {
 
 // arrowsAlong draws n arrows at the middles of n equal parts of the loop,
 // each moved on along the loop where it would cover a tab mark.
-func (pic *picture) arrowsAlong(lp span, total float64, n int, tabs []point) {
+func (pic *picture) arrowsAlong(lp span, total float64, n int, tabs []plan.Point) {
 	u := pic.lay.unit
 	shiftStep := 6 * u / pic.lay.scale
 	k, walked, shift := 0, 0.0, 0.0
 	for i := lp.from; i < lp.to && k < n; i++ {
 		s := &pic.path[i]
-		if !isCut(pic.an.classes[i]) {
+		if !pic.an.classes[i].Cuts() {
 			continue
 		}
 		l := planLength(s)
@@ -200,7 +201,7 @@ func (pic *picture) arrowsAlong(lp span, total float64, n int, tabs []point) {
 			f := max(0, (at-walked)/l)
 			q := s.At(f)
 			x, y := pic.lay.px(q.X, q.Y)
-			if pic.an.classes[i] == tabCut || (nearAny(tabs, x, y, 20*u) && shift < total/float64(2*n)) {
+			if pic.an.classes[i] == plan.Tab || (nearAny(tabs, x, y, 20*u) && shift < total/float64(2*n)) {
 				shift += shiftStep
 				continue
 			}

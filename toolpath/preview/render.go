@@ -7,6 +7,7 @@ import (
 	"math"
 
 	"github.com/focitools/foci/toolpath"
+	"github.com/focitools/foci/toolpath/internal/plan"
 	"github.com/fogleman/gg"
 )
 
@@ -112,7 +113,7 @@ func (pic *picture) drawBand() {
 	if w < 1 {
 		return
 	}
-	pl := pic.collect(func(i int) bool { return isCut(pic.an.classes[i]) })
+	pl := pic.collect(func(i int) bool { return pic.an.classes[i].Cuts() })
 	pic.dc.SetColor(bandColor)
 	pic.strokeLayer(pl, w)
 }
@@ -128,7 +129,7 @@ func (pic *picture) drawCuts() {
 		layers[k] = &polyline{}
 	}
 	for i := range pic.path {
-		if !isCut(pic.an.classes[i]) {
+		if !pic.an.classes[i].Cuts() {
 			continue
 		}
 		s := &pic.path[i]
@@ -147,7 +148,7 @@ func (pic *picture) drawTravel() {
 		return
 	}
 	u := pic.lay.unit
-	pl := pic.collect(func(i int) bool { return pic.an.classes[i] == travel })
+	pl := pic.collect(func(i int) bool { return pic.an.classes[i] == plan.Travel })
 	pic.dc.SetColor(travelColor)
 	pic.dc.SetDash(9*u, 6*u)
 	pic.dc.SetLineCapButt()
