@@ -47,9 +47,10 @@ func (p fitParams) ellipse() (Ellipse, bool) {
 
 // fitNormal is the state of the normal equations at one set of parameters.
 type fitNormal struct {
-	a    fitMat5 // JᵀJ
-	g    fitVec5 // Jᵀr
-	cost float64 // Σr²
+	a     fitMat5 // JᵀJ
+	g     fitVec5 // Jᵀr
+	cost  float64 // Σr²
+	noise float64 // bound on the rounding of cost
 }
 
 // fitEvaluate stores the signed distances and foot parameters of pts from e
@@ -78,6 +79,8 @@ func fitEvaluate(e Ellipse, pts []Point, r, ts []float64) fitNormal {
 			ne.g[a] += j[a] * d
 		}
 		ne.cost += d * d
+		// d carries rounding of a few ulps of the coordinates.
+		ne.noise += 2 * math.Abs(d) * 8e-16 * (math.Abs(p.X) + math.Abs(p.Y) + e.a)
 	}
 	for a := range 5 {
 		for b := range a {
@@ -110,6 +113,8 @@ func fitRefine(pts []Point, p fitParams, fixRotation bool, maxIter int, r, ts, r
 		return out
 	}
 	mu := 1e-3
+	const flatLimit = 4
+	flatSteps := 0
 	for out.iterations < maxIter {
 		cur := out.normal
 		if cur.cost == 0 {
@@ -143,7 +148,7 @@ func fitRefine(pts []Point, p fitParams, fixRotation bool, maxIter int, r, ts, r
 				step = fitCholeskySolve(l, neg)
 			}
 			stepSize := math.Sqrt(step[0]*step[0] + step[1]*step[1] + step[2]*step[2] + step[3]*step[3] + step[4]*step[4]*size*size)
-			tiny := stepSize <= 1e-13*size
+			tiny := stepSize <= 1e-12*size
 			var trial fitParams
 			for k := range 5 {
 				trial[k] = out.p[k] + step[k]
@@ -153,7 +158,15 @@ func fitRefine(pts []Point, p fitParams, fixRotation bool, maxIter int, r, ts, r
 			if ok && ok2 {
 				tn = fitEvaluate(te, pts, rTrial, tsTrial)
 			}
-			if ok && ok2 && tn.cost < cur.cost {
+			// Near the minimum the cost changes by δᵀ·JᵀJ·δ, which sinks
+			// below the rounding of the distances (a few ulps of the
+			// coordinates each, so a relative ε·a/σ of the cost) long
+			// before δ reaches rounding, while the gradient Jᵀr still
+			// points the way. A step whose cost rises by no more than that
+			// rounding is therefore taken too, at most flatLimit in a row,
+			// and the fit ends on a step of 1e-12 of the size.
+			flat := ok && ok2 && tn.cost >= cur.cost && tn.cost-cur.cost <= 4*(tn.noise+cur.noise)
+			if ok && ok2 && (tn.cost < cur.cost || flat) {
 				if math.Max(trial[2], trial[3]) > fitMaxSize {
 					out.runaway = true
 					return out
@@ -163,7 +176,12 @@ func fitRefine(pts []Point, p fitParams, fixRotation bool, maxIter int, r, ts, r
 				copy(r, rTrial)
 				copy(ts, tsTrial)
 				mu = math.Max(mu/10, 1e-15)
-				if tiny || cur.cost-tn.cost <= 1e-14*cur.cost {
+				if flat {
+					flatSteps++
+				} else {
+					flatSteps = 0
+				}
+				if tiny || flatSteps >= flatLimit || tn.cost == 0 {
 					out.converged = true
 					return out
 				}
