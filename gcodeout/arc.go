@@ -6,6 +6,14 @@ import (
 	"github.com/focitools/foci/toolpath"
 )
 
+// arcPlan is an arc ready to write: its end and centre in grid units, or
+// the decision to write it as a straight move.
+type arcPlan struct {
+	t      target
+	cx, cy int64
+	line   bool // write as a straight move to t (or nothing if t does not move)
+}
+
 func (w *Writer) arc(i int, s *toolpath.Segment) error {
 	if err := w.checkStart(i, s); err != nil {
 		return err
@@ -13,29 +21,91 @@ func (w *Writer) arc(i int, s *toolpath.Segment) error {
 	if !w.xyKnown {
 		return &SegmentError{Index: i, Field: "Start.X", Value: s.Start.X, Err: ErrArcUnknownStart}
 	}
-	t, err := w.end(i, s)
+	p, split, err := w.planArc(i, s, w.x, w.y, w.z)
 	if err != nil {
 		return err
+	}
+	if !split {
+		return w.emitArc(i, s, &p)
+	}
+	// Nearly a full circle, with ends so close that rounding makes them
+	// cross: written as two half arcs of the same circle, split at the
+	// middle, so that no turn is lost. Both halves are planned before
+	// either is written.
+	first, second := *s, *s
+	first.End = s.At(0.5)
+	second.Start = first.End
+	p1, _, err := w.planArc(i, &first, w.x, w.y, w.z)
+	if err != nil {
+		return err
+	}
+	p2, _, err := w.planArc(i, &second, p1.t.x, p1.t.y, p1.t.z)
+	if err != nil {
+		return err
+	}
+	if err := w.emitArc(i, &first, &p1); err != nil {
+		return err
+	}
+	return w.emitArc(i, &second, &p2)
+}
+
+// planArc plans arc s from grid point (sx, sy, sz). It reports split when
+// the arc turns more than half a circle but its rounded ends cross, so
+// that it must be written in two parts. An arc of at most half a turn that
+// rounding would collapse (ends on one grid point) or turn inside out
+// (printed sweep off by more than a quarter turn: its length is then a few
+// units in the last place) is planned as a straight move.
+func (w *Writer) planArc(i int, s *toolpath.Segment, sx, sy, sz int64) (p arcPlan, split bool, err error) {
+	t := &p.t
+	if t.x, err = w.coord(i, "X", s.End.X); err != nil {
+		return p, false, err
+	}
+	if t.y, err = w.coord(i, "Y", s.End.Y); err != nil {
+		return p, false, err
+	}
+	t.moveXY = t.x != sx || t.y != sy
+	if w.cfg.Machine != Laser {
+		if t.z, err = w.coord(i, "Z", s.End.Z); err != nil {
+			return p, false, err
+		}
+		t.moveZ = t.z != sz
+	}
+	sweep := math.Abs(s.Sweep())
+	if !t.moveXY && sweep <= math.Pi {
+		p.line = true
+		return p, false, nil
 	}
 	cx, err := w.coord(i, "CenterX", s.CenterX)
 	if err != nil {
-		return err
+		return p, false, err
 	}
 	cy, err := w.coord(i, "CenterY", s.CenterY)
 	if err != nil {
-		return err
+		return p, false, err
 	}
-	if !t.moveXY && math.Abs(s.Sweep()) <= math.Pi {
-		// A short arc whose ends round to one point: only Z can move.
-		return w.move(i, s, &t)
-	}
-	cx, cy, ok := arcCenter(w.x, w.y, t.x, t.y, cx, cy, w.limit)
+	cx, cy, ok := arcCenter(sx, sy, t.x, t.y, cx, cy, w.limit)
 	if !ok {
-		return &SegmentError{Index: i, Field: "Radius", Value: s.Radius, Err: ErrArcRadius}
+		return p, false, &SegmentError{Index: i, Field: "Radius", Value: s.Radius, Err: ErrArcRadius}
+	}
+	if t.moveXY && math.Abs(printedSweep(sx, sy, t.x, t.y, cx, cy, s.Clockwise)-sweep) > math.Pi/2 {
+		if sweep <= math.Pi {
+			p.line = true
+			return p, false, nil
+		}
+		return p, true, nil
+	}
+	p.cx, p.cy = cx, cy
+	return p, false, nil
+}
+
+// emitArc writes a planned arc (or its straight move).
+func (w *Writer) emitArc(i int, s *toolpath.Segment, p *arcPlan) error {
+	if p.line {
+		return w.move(i, s, &p.t)
 	}
 	// A travel arc is unusual but legal: G0 has no arc form, so it is
 	// written as a feed move like a cut (for a laser, with the beam off).
-	feed, err := w.feedFor(i, s, &t)
+	feed, err := w.feedFor(i, s, &p.t)
 	if err != nil {
 		return err
 	}
@@ -46,16 +116,35 @@ func (w *Writer) arc(i int, s *toolpath.Segment) error {
 	} else {
 		b = append(b, "G3"...)
 	}
-	t.moveXY = true // a full circle repeats X Y
-	b = w.appendAxes(b, &t)
+	p.t.moveXY = true // a full circle repeats X Y
+	b = w.appendAxes(b, &p.t)
 	b = append(b, " I"...)
-	b = appendFixed(b, cx-w.x, w.dec)
+	b = appendFixed(b, p.cx-w.x, w.dec)
 	b = append(b, " J"...)
-	b = appendFixed(b, cy-w.y, w.dec)
+	b = appendFixed(b, p.cy-w.y, w.dec)
 	b = w.appendFeed(b, feed)
 	w.buf = append(b, '\n')
-	w.moved(s, &t)
+	w.moved(s, &p.t)
 	return nil
+}
+
+// printedSweep returns the angle, in (0, 2π], that the arc from grid
+// point (sx, sy) to (ex, ey) about (cx, cy) turns through in its
+// direction, as a reader of the text computes it. The conversions keep
+// the products unfused (see radiusMismatch).
+func printedSweep(sx, sy, ex, ey, cx, cy int64, clockwise bool) float64 {
+	ax, ay := float64(sx-cx), float64(sy-cy)
+	bx, by := float64(ex-cx), float64(ey-cy)
+	cross := float64(ax*by) - float64(ay*bx)
+	dot := float64(ax*bx) + float64(ay*by)
+	a := math.Atan2(cross, dot)
+	if clockwise {
+		a = -a
+	}
+	if a <= 0 {
+		a += 2 * math.Pi
+	}
+	return a
 }
 
 // arcCenter chooses the grid centre to write for an arc from grid point

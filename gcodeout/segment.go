@@ -27,9 +27,14 @@ import (
 //
 // A segment must start where the previous one ended (within one unit in
 // the last place); the first must start at the start-block height for a
-// router or plotter. The writer adds no moves of its own: a move that
-// rounds to no motion at all is left out, and an arc that rounds to no XY
-// motion (sweep under half a turn) is written as its Z move alone, if any.
+// router or plotter. The writer adds no moves of its own, but rounding
+// can leave too little of a move to write as given: a move that rounds to
+// no motion at all is left out; an arc of at most half a turn whose ends
+// round to one point, or whose rounded ends and centre would turn it
+// inside out (it is then a few units in the last place long), is written
+// as a straight move to its rounded end; an arc of more than half a turn
+// whose rounded ends would cross is written as two arcs of the same
+// circle, split at its middle.
 // An arc that travels is written as a feed move too, since G0 has no arc
 // form. Coordinates must be finite and below 10^15 units in the last place
 // in magnitude (10^12 at 3 decimals).

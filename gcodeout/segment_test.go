@@ -168,7 +168,11 @@ func TestWriteSegmentRefuses(t *testing.T) {
 		{"negative dwell", func() toolpath.Segment { s := seg(toolpath.Dwell, cut, 1, 1, 5, 1, 1, 5); s.Seconds = -2; return s }(), "gcodeout: segment 1: P -2: must not be negative", gcodeout.ErrNegative},
 		{"unknown kind", seg(7, cut, 1, 1, 5, 2, 2, 5), "gcodeout: segment 1: Kind 7: unknown value", gcodeout.ErrUnknown},
 		{"unknown motion", seg(line, 4, 1, 1, 5, 2, 2, 5), "gcodeout: segment 1: Motion 4: unknown value", gcodeout.ErrUnknown},
-		{"arc of zero radius", func() toolpath.Segment { s := arcSeg(cut, 1, 1, 1, 1, 1.0002, 1, 5, false); s.Radius = 0.0002; return s }(), "gcodeout: segment 1: Radius 0.0002: arc cannot be written within the radius limit", gcodeout.ErrArcRadius},
+		{"arc of zero radius", func() toolpath.Segment {
+			s := arcSeg(cut, 1, 1, 1, 1, 1.0002, 1, 5, false)
+			s.Radius = 0.0002
+			return s
+		}(), "gcodeout: segment 1: Radius 0.0002: arc cannot be written within the radius limit", gcodeout.ErrArcRadius},
 		{"arc whose ends are not on one circle", arcSeg(cut, 1, 1, 3, 1, 0, 1, 5, false), "gcodeout: segment 1: Radius 1: arc cannot be written within the radius limit", gcodeout.ErrArcRadius},
 		{"NaN centre", arcSeg(cut, 1, 1, 3, 1, math.NaN(), 1, 5, false), "gcodeout: segment 1: CenterX NaN: not a finite number", gcodeout.ErrNotFinite},
 	}
@@ -284,5 +288,51 @@ func TestWriteErrorIsSticky(t *testing.T) {
 	}
 	if err := w.Close(); !errors.Is(err, errDiskFull) {
 		t.Errorf("Close: %v, want the writer's error again", err)
+	}
+}
+
+// TestArcEndsCrossWhenRounded builds arcs whose written start (one unit
+// from the given start, a gap the writer accepts), rounded end and
+// rounded centre put the ends on the wrong side of each other: nearly a
+// full circle would print as a sliver, and a sliver as nearly a full
+// circle. The writer splits the first in two halves and writes the second
+// as a line.
+func TestArcEndsCrossWhenRounded(t *testing.T) {
+	cfg := gcodeout.Config{Machine: gcodeout.Laser, Units: gcodeout.Inch, Feed: 20, Power: 100}
+	r := 10.000009
+	delta := math.Asin(0.000004 / r)
+	arc := toolpath.Segment{Kind: toolpath.Arc, Motion: toolpath.Cut,
+		Start:   toolpath.Point{X: 10.000009, Y: 0.000006},
+		End:     toolpath.Point{X: r * math.Cos(delta), Y: 0.000006 - r*math.Sin(delta)},
+		CenterX: 0, CenterY: 0.000006, Radius: r}
+	tests := []struct {
+		name      string
+		clockwise bool
+		want      []string
+	}{
+		{"nearly a full circle, counter-clockwise", false, []string{"G3 X-10.00001 Y0.00001 I-10 J0.00001 F20", "G3 X10.00001 Y0 I10.00001 J0"}},
+		{"a sliver, clockwise", true, []string{"G1 X10.00001 Y0 F20"}},
+	}
+	for _, tt := range tests {
+		a := arc
+		a.Clockwise = tt.clockwise
+		path := toolpath.Path{seg(line, travel, 0, 0, 0, 10, 0, 0), a}
+		var out bytes.Buffer
+		if err := gcodeout.WritePath(&out, cfg, path); err != nil {
+			t.Fatal(err)
+		}
+		want := append([]string{"M5", "G0 X10 Y0", "M3 S100"}, tt.want...)
+		want = append(want, "M5", "M2")
+		if got := codeLines(out.String()); strings.Join(got, "\n") != strings.Join(want, "\n") {
+			t.Errorf("%s: got\n%s\nwant\n%s", tt.name, strings.Join(got, "\n"), strings.Join(want, "\n"))
+		}
+		p := readBack(t, out.String())
+		for _, m := range p.moves {
+			if m.g >= 2 {
+				if rs, re := m.radii(); math.Abs(rs-re) > gcodeout.ArcRadiusLimitInch {
+					t.Errorf("%s: line %d radii %v, %v", tt.name, m.line, rs, re)
+				}
+			}
+		}
 	}
 }
