@@ -58,6 +58,8 @@ type fitNormal struct {
 // cannot be computed makes the cost infinite.
 func fitEvaluate(e Ellipse, pts []Point, r, ts []float64) fitNormal {
 	var ne fitNormal
+	rx, ry, size := e.SemiX(), e.SemiY(), e.SemiMajor()
+	sin, cos := math.Sincos(e.Rotation())
 	for i, p := range pts {
 		t, d := e.Nearest(p)
 		if math.IsNaN(d) {
@@ -67,11 +69,11 @@ func fitEvaluate(e Ellipse, pts []Point, r, ts []float64) fitNormal {
 		r[i], ts[i] = d, t
 		st, ct := math.Sincos(t)
 		// Outward normal in the own frame, ∝ (ry·cos t, rx·sin t).
-		lx, ly := e.ry*ct, e.rx*st
+		lx, ly := ry*ct, rx*st
 		h := math.Hypot(lx, ly)
 		lx, ly = lx/h, ly/h
-		nx, ny := e.cos*lx-e.sin*ly, e.sin*lx+e.cos*ly
-		j := fitVec5{-nx, -ny, -lx * ct, -ly * st, lx*e.ry*st - ly*e.rx*ct}
+		nx, ny := cos*lx-sin*ly, sin*lx+cos*ly
+		j := fitVec5{-nx, -ny, -lx * ct, -ly * st, lx*ry*st - ly*rx*ct}
 		for a := range 5 {
 			for b := a; b < 5; b++ {
 				ne.a[a][b] += j[a] * j[b]
@@ -80,7 +82,7 @@ func fitEvaluate(e Ellipse, pts []Point, r, ts []float64) fitNormal {
 		}
 		ne.cost += d * d
 		// d carries rounding of a few ulps of the coordinates.
-		ne.noise += 2 * math.Abs(d) * 8e-16 * (math.Abs(p.X) + math.Abs(p.Y) + e.a)
+		ne.noise += 2 * math.Abs(d) * 8e-16 * (math.Abs(p.X) + math.Abs(p.Y) + size)
 	}
 	for a := range 5 {
 		for b := range a {
