@@ -20,8 +20,8 @@ type Divider struct {
 	n, k   int
 	step   float64 // L/N, scaled by 1/a
 	dn     float64 // offset scaled by 1/a
-	half   float64 // half length, scaled
-	prev   float64 // reduced parameter of the previous point
+	qd     float64 // quarter length, scaled
+	prev   float64 // reduced parameter of the previous point (internal frame)
 	prevK  float64 // its half-turn count
 	length float64
 }
@@ -33,8 +33,9 @@ func NewDivider(c Parallel, n int) (Divider, error) {
 	}
 	l := c.Length()
 	a := c.e.a
-	return Divider{c: c, n: n, step: l / a / float64(n), dn: c.d / a,
-		half: 2*c.e.quarter + c.d/a*math.Pi, length: l}, nil
+	dn := c.d / a
+	return Divider{c: c, n: n, step: l / a / float64(n), dn: dn,
+		qd: c.e.quarter + dn*(math.Pi/2), length: l}, nil
 }
 
 // Length returns the length of the divided curve.
@@ -52,24 +53,37 @@ func (d *Divider) Next() (DivisionPoint, bool) {
 	d.k++
 	e := d.c.e
 	if k == 0 {
-		d.prev, d.prevK = 0, 0
+		d.prevK, d.prev = e.reduceFrame(0)
 		return DivisionPoint{Point: d.c.PointAt(0), T: 0, S: 0}, true
 	}
 	w := float64(k) * d.step
-	hk := math.Round(w / d.half)
-	res := math.FMA(-hk, d.half, w)
-	// Start from the previous point advanced by the step over the local
-	// speed, in the reduced range of this point.
-	guess := d.prev + (hk-d.prevK)*(-math.Pi)
-	s, c := math.Sincos(d.prev)
-	v := math.Sqrt(e.speed2(s, c))
-	guess += d.step / (v + d.dn*e.ux*e.uy/(v*v))
-	if !(guess > -math.Pi/2 && guess < math.Pi/2) {
-		guess = e.guess(res / (d.half / 2))
+	w1 := w - e.phase*d.qd // see paramAt
+	half := 2 * d.qd
+	hk := math.Round(w1 / half)
+	res := math.FMA(-hk, half, w1)
+	if res > d.qd {
+		res = d.qd
+	} else if res < -d.qd {
+		res = -d.qd
 	}
-	r := e.solveReduced(res, d.dn, guess)
+	// Start from the previous point advanced by the inverse Taylor
+	// polynomial of the length to second order, Δr ≈ h/f' − f''h²/(2f'³),
+	// in the reduced range of this point.
+	s, c := math.Sincos(d.prev)
+	v := e.speedX(s, c)
+	fp, fpp := v, float64(e.m1*s)*c/v
+	if d.dn != 0 {
+		q := d.dn * e.k / (float64(v*v) * v)
+		fp, fpp = v+float64(q*v), fpp*(1-2*q)
+	}
+	h := d.step / fp
+	guess := d.prev + (d.prevK-hk)*math.Pi + (h - float64(fpp*h)*h/(2*fp))
+	if !(guess > -math.Pi/2 && guess < math.Pi/2) {
+		guess = e.guess(res/d.qd, d.dn)
+	}
+	r, _ := e.solveReduced(res, d.dn, guess)
 	d.prev, d.prevK = r, hk
-	t := hk*math.Pi + r
+	t := e.fromFrame(hk, r)
 	return DivisionPoint{Point: d.c.PointAt(t), T: t, S: w * e.a}, true
 }
 

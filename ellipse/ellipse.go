@@ -27,6 +27,12 @@ type Ellipse struct {
 	a, b     float64 // semi-major, semi-minor
 	ux, uy   float64 // rx/a, ry/a: the semi-axes scaled to a major of 1
 	quarter  float64 // quarter perimeter divided by a
+	// The internal frame of arclength.go: major axis along x, parameter
+	// τ = t − phase·π/2.
+	k, k2 float64 // b/a and its square
+	m1    float64 // 1 − k², computed as (1 − k)(1 + k)
+	atk   float64 // atanh(k), +Inf for a circle: the branch points of the speed
+	phase float64 // 0 if the own x axis is the major one, 1 if the own y axis is
 }
 
 // New returns the ellipse with the given centre, semi-axis semiX along its
@@ -61,7 +67,14 @@ func New(center Point, semiX, semiY, rotation float64) (Ellipse, error) {
 	e.sin, e.cos = math.Sincos(rotation)
 	e.a, e.b = math.Max(semiX, semiY), math.Min(semiX, semiY)
 	e.ux, e.uy = semiX/e.a, semiY/e.a
-	e.quarter = quarterLength(e.b / e.a)
+	e.k = e.b / e.a
+	e.k2 = e.k * e.k
+	e.m1 = (1 - e.k) * (1 + e.k)
+	e.atk = math.Atanh(e.k)
+	if semiY > semiX {
+		e.phase = 1
+	}
+	e.quarter = quarterLength(e.k)
 	return e, nil
 }
 

@@ -1,0 +1,119 @@
+package ellipse
+
+import "math"
+
+// Inverting the arc length: the parameter at a given length.
+
+// guess returns a starting parameter in [−π/2, π/2] of the internal frame
+// for the reduced, normalised length u ∈ [−1, 1] (a fraction of the
+// quarter of the curve at scaled offset dn). For the ellipse itself it
+// blends, by the axis ratio k, the circle (r ∝ u) and the flat limit
+// (speed |sin r|, so u = 1 − cos r). A parallel curve adds dn·ν(r), ν the
+// turn of the normal, whose inverse is exact: r = atan2(k·sin ν, cos ν).
+// The two are blended by the share of the turn term in the quarter length.
+func (e Ellipse) guess(u, dn float64) float64 {
+	u = math.Max(-1, math.Min(1, u))
+	circle := u * (math.Pi / 2)
+	flat := math.Copysign(math.Acos(1-math.Abs(u)), u)
+	r := e.k*circle + (1-e.k)*flat
+	if dn != 0 {
+		alpha := dn * (math.Pi / 2) / (e.quarter + dn*(math.Pi/2))
+		sn, cn := math.Sincos(circle)
+		turn := math.Atan2(e.k*sn, cn)
+		r = math.Max(-math.Pi/2, math.Min(math.Pi/2, r+alpha*(turn-r)))
+	}
+	return r
+}
+
+// cubicStop bounds the last Halley step, relative to the local length
+// scale, after which the iteration stops without another evaluation:
+// Halley's error is cubic, e_{n+1} ≈ K·e_n³ with K of order 1/ρ² for a
+// length scale ρ over which the speed changes, so a step h ≤ 1e-6·ρ leaves
+// an error of order 1e-18·ρ, below rounding; the step must also leave
+// h³/ρ² below half an ulp of the result, which matters only for results
+// near 0. The scaled speed itself serves as ρ: near the ends of the major
+// axis of a flat ellipse both shrink to b/a, and elsewhere ρ is at least
+// the speed. For a parallel curve the smaller of that and its own speed is
+// used.
+const cubicStop = 1e-6
+
+// solveReduced returns r ∈ [−π/2, π/2] with L_d(r) = w in the internal
+// frame, starting at r0, and the number of length evaluations it took.
+// L_d is increasing (its derivative, the speed of the parallel curve, is
+// positive for admissible offsets), so a bracket is kept and a Halley step
+// that leaves it, or whose denominator is not positive, is replaced by
+// bisection. The bracket is [−π/2, π/2], narrowed for the ellipse itself
+// by the bounds k ≤ speed ≤ 1: r lies between w and w/k.
+func (e Ellipse) solveReduced(w, dn, r0 float64) (float64, int) {
+	lo, hi := -math.Pi/2, math.Pi/2
+	if dn == 0 {
+		if w >= 0 {
+			lo, hi = math.Min(w, hi), math.Min(w/e.k, hi)
+		} else {
+			lo, hi = math.Max(w/e.k, lo), math.Max(w, lo)
+		}
+		// The bounds are exact up to rounding; widen them by a few ulps.
+		lo -= 0x1p-50 * math.Abs(lo)
+		hi += 0x1p-50 * math.Abs(hi)
+		if !(r0 > lo && r0 < hi) {
+			r0 = lo + (hi-lo)/2
+		}
+	}
+	r := r0
+	for i := 1; i <= 100; i++ {
+		s, c := math.Sincos(r)
+		x, y := e.argsX(s, c)
+		rf, rd := rfrd(x, y, e.k2)
+		f := e.lengthX(s, rf, rd)
+		v := math.Sqrt(y) // scaled speed √(sin²r + k²cos²r)
+		dv := float64(e.m1*s) * c / v
+		fp, fpp := v, dv
+		if dn != 0 {
+			f += dn * e.turnX(s, c)
+			q := dn * e.k / (float64(v*v) * v) // d·κ: the parallel curve runs 1 + q times as fast
+			fp = v + float64(q*v)
+			fpp = dv * (1 - 2*q)
+		}
+		g := f - w
+		if g == 0 {
+			return r, i
+		}
+		if g < 0 {
+			lo = r
+		} else {
+			hi = r
+		}
+		den := float64(2*fp*fp) - float64(g*fpp)
+		step := -2 * g * fp / den
+		next := r + step
+		if !(den > 0 && next > lo && next < hi) {
+			next = lo + (hi-lo)/2
+		} else if rho := math.Min(v, fp); math.Abs(step) <= cubicStop*rho &&
+			float64(step*step)*math.Abs(step) <= 0x1p-54*math.Abs(next)*float64(rho*rho) {
+			return next, i
+		}
+		if next == r || hi-lo <= 0x1p-52*math.Max(1, math.Abs(r)) {
+			return next, i
+		}
+		r = next
+	}
+	return r, 100
+}
+
+// polishNearStart refines a parameter t found in the internal frame when
+// that frame starts a quarter turn away (own y axis the major one): there
+// the reduced length w − qd has lost the digits of a short w. If the arc
+// from 0 to t is short enough to be integrated directly, one Newton step
+// on that arc restores them (the error is already of order 1e-16, so the
+// step leaves one of order 1e-32).
+func (e Ellipse) polishNearStart(t, w, dn float64) float64 {
+	_, r0 := e.reduceFrame(0)
+	if math.Abs(t) > e.quadSpan(r0+t/2) {
+		return t
+	}
+	g := e.scaledArc(0, t, dn) - w
+	s, c := math.Sincos(t)
+	v := math.Sqrt(e.speed2(s, c))
+	fp := v + dn*e.k/(float64(v*v))
+	return t - g/fp
+}
