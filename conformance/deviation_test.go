@@ -1,0 +1,385 @@
+package conformance
+
+import (
+	"math"
+	"testing"
+
+	"github.com/focitools/foci/ellipse"
+	"github.com/focitools/foci/toolpath"
+	"pgregory.net/rapid"
+)
+
+func mustEllipse(tb testing.TB, c ellipse.Point, rx, ry, rot float64) ellipse.Ellipse {
+	tb.Helper()
+	e, err := ellipse.New(c, rx, ry, rot)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return e
+}
+
+func mustParallel(tb testing.TB, e ellipse.Ellipse, d float64) ellipse.Parallel {
+	tb.Helper()
+	p, err := e.Parallel(d)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return p
+}
+
+func line(x0, y0, x1, y1 float64) toolpath.Segment {
+	return toolpath.Segment{Kind: toolpath.Line, Motion: toolpath.Cut,
+		Start: toolpath.Point{X: x0, Y: y0}, End: toolpath.Point{X: x1, Y: y1}}
+}
+
+// arcAbout returns the arc about (cx, cy) of radius r from angle a0 through
+// the signed sweep.
+func arcAbout(cx, cy, r, a0, sweep float64) toolpath.Segment {
+	a1 := a0 + sweep
+	return toolpath.Segment{Kind: toolpath.Arc, Motion: toolpath.Cut,
+		Start:   toolpath.Point{X: cx + r*math.Cos(a0), Y: cy + r*math.Sin(a0)},
+		End:     toolpath.Point{X: cx + r*math.Cos(a1), Y: cy + r*math.Sin(a1)},
+		CenterX: cx, CenterY: cy, Radius: r, Clockwise: sweep < 0}
+}
+
+// TestSegmentDeviationCircle checks against closed forms for a circle,
+// where the signed distance is |p − O| − r (elementary geometry, no
+// numerics of ours): a chord of half-length c dips r − √(r² − c²) below
+// the circle at its middle (the sagitta); an arc concentric with the circle
+// stays at its radius difference; an arc of radius R through the two ends
+// of a chord reaches √(r² − c²) + R − √(R² − c²) from O at its middle.
+func TestSegmentDeviationCircle(t *testing.T) {
+	type tc struct {
+		name   string
+		center ellipse.Point
+		r, d   float64 // circle radius, offset of the intended curve
+		seg    toolpath.Segment
+		lo, hi float64
+	}
+	var tests []tc
+	for _, c := range []struct {
+		name   string
+		center ellipse.Point
+		r, d   float64
+	}{
+		{"r25", ellipse.Point{}, 25, 0},
+		{"r25 off-centre", ellipse.Point{X: 1500, Y: -800}, 25, 0},
+		{"r0.05 offset +0.01", ellipse.Point{X: 3, Y: 4}, 0.05, 0.01},
+		{"r2500 offset -300", ellipse.Point{X: -40}, 2500, -300},
+	} {
+		rr := c.r + c.d // radius of the intended circle
+		for _, half := range []float64{1e-4, 0.01, 0.2, 0.7} {
+			a := 0.37
+			ca := half * rr // half chord
+			th := math.Asin(half)
+			p0x, p0y := c.center.X+rr*math.Cos(a-th), c.center.Y+rr*math.Sin(a-th)
+			p1x, p1y := c.center.X+rr*math.Cos(a+th), c.center.Y+rr*math.Sin(a+th)
+			sag := rr - math.Sqrt((rr-ca)*(rr+ca))
+			tests = append(tests, tc{c.name + " chord", c.center, c.r, c.d, line(p0x, p0y, p1x, p1y), -sag, 0})
+			tests = append(tests, tc{c.name + " chord reversed", c.center, c.r, c.d, line(p1x, p1y, p0x, p0y), -sag, 0})
+			for _, k := range []float64{0.5, 0.999, 1.001, 3} {
+				R := rr / k // bulging less (R > rr) or more (R < rr) than the circle
+				if ca >= R {
+					continue
+				}
+				// centre of the arc on the symmetry line, on the side of O
+				m := math.Sqrt((rr - ca) * (rr + ca)) // O to chord
+				mR := math.Sqrt((R - ca) * (R + ca))  // arc centre to chord
+				ox, oy := math.Cos(a), math.Sin(a)    // unit from O to chord middle
+				acx, acy := c.center.X+(m-mR)*ox, c.center.Y+(m-mR)*oy
+				mid := m - rr + R - mR // deviation of the arc's middle
+				lo, hi := math.Min(mid, 0), math.Max(mid, 0)
+				s := toolpath.Segment{Kind: toolpath.Arc, Motion: toolpath.Cut,
+					Start: toolpath.Point{X: p0x, Y: p0y}, End: toolpath.Point{X: p1x, Y: p1y},
+					CenterX: acx, CenterY: acy, Radius: math.Hypot(p0x-acx, p0y-acy)}
+				tests = append(tests, tc{c.name + " arc through chord", c.center, c.r, c.d, s, lo, hi})
+			}
+		}
+		for _, dr := range []float64{-1e-3, 0, 2e-6} {
+			R := rr + dr*rr
+			tests = append(tests, tc{c.name + " concentric arc", c.center, c.r, c.d,
+				arcAbout(c.center.X, c.center.Y, R, 0.3, 1.1), R - rr, R - rr})
+			tests = append(tests, tc{c.name + " concentric full circle clockwise", c.center, c.r, c.d,
+				arcAbout(c.center.X, c.center.Y, R, 2, -2*math.Pi), R - rr, R - rr})
+		}
+	}
+	for _, tt := range tests {
+		e := mustEllipse(t, tt.center, tt.r, tt.r, 0)
+		p := mustParallel(t, e, tt.d)
+		lo, hi := SegmentDeviation(p, tt.seg)
+		// 1% of the range (the documented bound; measured extremes can
+		// only fall short) plus rounding in coordinates of this size.
+		eps := 1e-13 * (tt.r + math.Abs(tt.d) + math.Abs(tt.center.X) + math.Abs(tt.center.Y))
+		allow := 0.01*(tt.hi-tt.lo) + eps
+		if !(lo >= tt.lo-eps && lo <= tt.lo+allow) || !(hi <= tt.hi+eps && hi >= tt.hi-allow) {
+			t.Errorf("%s: got [%.17g, %.17g], want [%.17g, %.17g] within %.3g", tt.name, lo, hi, tt.lo, tt.hi, allow)
+		}
+	}
+}
+
+// TestSegmentDeviationSpecialCases mirrors the Special cases block.
+func TestSegmentDeviationSpecialCases(t *testing.T) {
+	e := mustEllipse(t, ellipse.Point{}, 60, 40, 0)
+	c := e.Curve()
+	nan := math.NaN()
+	dwell := toolpath.Segment{Kind: toolpath.Dwell, Start: toolpath.Point{X: 61}, End: toolpath.Point{X: 61}, Seconds: 1}
+	tests := []struct {
+		name   string
+		seg    toolpath.Segment
+		lo, hi float64 // NaN: want NaN
+	}{
+		{"NaN start", line(nan, 0, 1, 1), nan, nan},
+		{"infinite end", line(0, 0, math.Inf(1), 1), nan, nan},
+		{"NaN arc centre", toolpath.Segment{Kind: toolpath.Arc, Start: toolpath.Point{X: 60}, End: toolpath.Point{Y: 40}, CenterX: nan, Radius: 1}, nan, nan},
+		{"dwell", dwell, 1, 1},
+		{"zero-length line", line(0, 39, 0, 39), -1, -1},
+	}
+	for _, tt := range tests {
+		lo, hi := SegmentDeviation(c, tt.seg)
+		if math.IsNaN(tt.lo) {
+			if !math.IsNaN(lo) || !math.IsNaN(hi) {
+				t.Errorf("%s: got [%g, %g], want NaN, NaN", tt.name, lo, hi)
+			}
+			continue
+		}
+		if math.Abs(lo-tt.lo) > 1e-12 || math.Abs(hi-tt.hi) > 1e-12 {
+			t.Errorf("%s: got [%g, %g], want [%g, %g]", tt.name, lo, hi, tt.lo, tt.hi)
+		}
+	}
+}
+
+// denseDeviation is the slow route: the exact distance at m+1 evenly spaced
+// points, then golden-section search around the best sample of each kind.
+func denseDeviation(c ellipse.Parallel, s toolpath.Segment, m int) (lo, hi float64) {
+	e := c.Ellipse()
+	f := func(u float64) float64 {
+		x, y := precisePoint(s, u)
+		return e.SignedDistance(ellipse.Point{X: x, Y: y}) - c.Offset()
+	}
+	lo, hi = math.Inf(1), math.Inf(-1)
+	iLo, iHi := 0, 0
+	for i := 0; i <= m; i++ {
+		v := f(float64(i) / float64(m))
+		if v < lo {
+			lo, iLo = v, i
+		}
+		if v > hi {
+			hi, iHi = v, i
+		}
+	}
+	golden := func(i int, sgn float64) float64 {
+		a, b := math.Max(0, float64(i-1)/float64(m)), math.Min(1, float64(i+1)/float64(m))
+		const g = 0.6180339887498949
+		best := math.Inf(-1)
+		x1, x2 := b-g*(b-a), a+g*(b-a)
+		f1, f2 := sgn*f(x1), sgn*f(x2)
+		for k := 0; k < 60; k++ {
+			best = math.Max(best, math.Max(f1, f2))
+			if f1 > f2 {
+				b, x2, f2 = x2, x1, f1
+				x1 = b - g*(b-a)
+				f1 = sgn * f(x1)
+			} else {
+				a, x1, f1 = x1, x2, f2
+				x2 = a + g*(b-a)
+				f2 = sgn * f(x2)
+			}
+		}
+		return sgn * best
+	}
+	hi = math.Max(hi, golden(iHi, 1))
+	lo = math.Min(lo, golden(iLo, -1))
+	return lo, hi
+}
+
+// precisePoint is toolpath.Segment.At in XY with the digits of flat arcs
+// kept: the arc point is Start turned about the centre by u·Sweep through a
+// rotation matrix applied to Start − centre, added to Start (At adds a
+// radius of up to 1e4 semi-major axes to a far centre and loses those
+// digits).
+func precisePoint(s toolpath.Segment, u float64) (x, y float64) {
+	if s.Kind != toolpath.Arc {
+		p := s.At(u)
+		return p.X, p.Y
+	}
+	ox, oy := s.Start.X-s.CenterX, s.Start.Y-s.CenterY
+	k := s.Radius / math.Hypot(ox, oy)
+	sn, cs := math.Sincos(u * s.Sweep())
+	// (k·cos − 1) without cancellation: k·cos − 1 = (k − 1) + k·(cos − 1),
+	// cos − 1 = −sin²/(1 + cos) for |angle| < π/2, else direct.
+	cm1 := cs - 1
+	if cs > 0 {
+		cm1 = -sn * sn / (1 + cs)
+	}
+	a := (k - 1) + k*cm1
+	return s.Start.X + a*ox - k*sn*oy, s.Start.Y + a*oy + k*sn*ox
+}
+
+// segmentNear draws a line or an arc near the curve: ends and (for an arc)
+// a middle point at parameters t0 < tm < t1, each moved off the curve by up
+// to w along the normal; the arc is the circle through the three.
+func segmentNear(t *rapid.T, c ellipse.Parallel) toolpath.Segment {
+	e := c.Ellipse()
+	a := e.SemiMajor()
+	t0 := rapid.Float64Range(-7, 7).Draw(t, "t0")
+	span := math.Pow(10, rapid.Float64Range(-4, math.Log10(2.5)).Draw(t, "log span"))
+	w := a * math.Pow(10, rapid.Float64Range(-9, -2).Draw(t, "log width"))
+	pt := func(tt float64, name string) (float64, float64) {
+		off := rapid.Float64Range(-w, w).Draw(t, name)
+		q, n := c.PointAt(tt), c.Normal(tt)
+		return q.X + off*n.X, q.Y + off*n.Y
+	}
+	x0, y0 := pt(t0, "off0")
+	x1, y1 := pt(t0+span, "off1")
+	if !rapid.Bool().Draw(t, "arc") {
+		return line(x0, y0, x1, y1)
+	}
+	xm, ym := pt(t0+span*rapid.Float64Range(0.2, 0.8).Draw(t, "mid"), "offm")
+	// circumcentre of the three points
+	bx, by := xm-x0, ym-y0
+	cx, cy := x1-x0, y1-y0
+	dd := 2 * (bx*cy - by*cx)
+	if dd == 0 {
+		return line(x0, y0, x1, y1)
+	}
+	ux := (cy*(bx*bx+by*by) - by*(cx*cx+cy*cy)) / dd
+	uy := (bx*(cx*cx+cy*cy) - cx*(bx*bx+by*by)) / dd
+	r := math.Hypot(ux, uy)
+	if r > 1e6*a {
+		return line(x0, y0, x1, y1)
+	}
+	return toolpath.Segment{Kind: toolpath.Arc, Motion: toolpath.Cut,
+		Start: toolpath.Point{X: x0, Y: y0}, End: toolpath.Point{X: x1, Y: y1},
+		CenterX: x0 + ux, CenterY: y0 + uy, Radius: r, Clockwise: dd < 0}
+}
+
+func drawCurve(t *rapid.T) ellipse.Parallel {
+	a := math.Pow(10, rapid.Float64Range(-1.5, 3.5).Draw(t, "log a"))
+	ratio := math.Pow(10, rapid.Float64Range(-3, 0).Draw(t, "log b/a"))
+	cx := rapid.Float64Range(-2*a, 2*a).Draw(t, "cx")
+	cy := rapid.Float64Range(-2*a, 2*a).Draw(t, "cy")
+	rot := rapid.Float64Range(-4, 4).Draw(t, "rotation")
+	rx, ry := a, a*ratio
+	if rapid.Bool().Draw(t, "swap") {
+		rx, ry = ry, rx
+	}
+	e, err := ellipse.New(ellipse.Point{X: cx, Y: cy}, rx, ry, rot)
+	if err != nil {
+		t.Fatal(err)
+	}
+	lim := e.MinRadiusOfCurvature()
+	d := rapid.SampledFrom([]float64{0, 0, -0.5 * lim, 0.3 * e.SemiMinor(), 2 * a}).Draw(t, "offset")
+	p, err := e.Parallel(d)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+// TestSegmentDeviationWithinOnePercentOfDense is the documented accuracy:
+// against a dense sampling (20 000 intervals and golden-section search),
+// each measured extreme lies inside the true range and within 1% of it.
+func TestSegmentDeviationWithinOnePercentOfDense(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		c := drawCurve(t)
+		s := segmentNear(t, c)
+		lo, hi := SegmentDeviation(c, s)
+		dlo, dhi := denseDeviation(c, s, 20000)
+		e := c.Ellipse()
+		eps := 1e-13 * (e.SemiMajor() + math.Abs(c.Offset()) + math.Abs(e.Center().X) + math.Abs(e.Center().Y))
+		allow := 0.01*(dhi-dlo) + eps
+		if !(lo >= dlo-eps && lo <= dlo+allow) {
+			t.Fatalf("lo: got %.17g, want %.17g within %.3g (range %.3g)", lo, dlo, allow, dhi-dlo)
+		}
+		if !(hi <= dhi+eps && hi >= dhi-allow) {
+			t.Fatalf("hi: got %.17g, want %.17g within %.3g (range %.3g)", hi, dhi, allow, dhi-dlo)
+		}
+	})
+}
+
+// TestParallelDistanceIsEllipseDistanceLessOffset checks the identity
+// SegmentDeviation rests on, sd_parallel = sd_ellipse − d, against the
+// distance to a dense polygon through the parallel curve refined by
+// golden-section search on the curve parameter: an independent route
+// that never uses the ellipse's distance.
+func TestParallelDistanceIsEllipseDistanceLessOffset(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		a := 50.0
+		ratio := rapid.Float64Range(0.05, 1).Draw(t, "b/a")
+		e, _ := ellipse.New(ellipse.Point{X: 7, Y: -3}, a, a*ratio, 0.4)
+		lim := e.MinRadiusOfCurvature()
+		d := rapid.Float64Range(-0.95*lim, 0.5*a).Draw(t, "offset")
+		c, _ := e.Parallel(d)
+		tt := rapid.Float64Range(0, 2*math.Pi).Draw(t, "t")
+		depth := rapid.Float64Range(-0.9*(lim+d), a).Draw(t, "deviation") // off the parallel curve
+		q, n := c.PointAt(tt), c.Normal(tt)
+		p := ellipse.Point{X: q.X + depth*n.X, Y: q.Y + depth*n.Y}
+		dist := func(u float64) float64 {
+			r := c.PointAt(u)
+			return math.Hypot(p.X-r.X, p.Y-r.Y)
+		}
+		const m = 4000
+		best, bi := math.Inf(1), 0
+		for i := 0; i < m; i++ {
+			if v := dist(2 * math.Pi * float64(i) / m); v < best {
+				best, bi = v, i
+			}
+		}
+		lo, hi := 2*math.Pi*float64(bi-1)/m, 2*math.Pi*float64(bi+1)/m
+		const g = 0.6180339887498949
+		for k := 0; k < 80; k++ {
+			x1, x2 := hi-g*(hi-lo), lo+g*(hi-lo)
+			if dist(x1) < dist(x2) {
+				hi = x2
+			} else {
+				lo = x1
+			}
+		}
+		best = math.Min(best, dist((lo+hi)/2))
+		got := e.SignedDistance(p) - d
+		if math.Abs(math.Abs(got)-best) > 1e-9*a || (depth > 1e-9*a && got < 0) || (depth < -1e-9*a && got > 0) {
+			t.Fatalf("point at %.6g off the curve: sd_ellipse − d = %.15g, distance to the parallel curve %.15g", depth, got, best)
+		}
+	})
+}
+
+// TestSegmentDeviationAllocatesNothing is the zero-allocation contract.
+func TestSegmentDeviationAllocatesNothing(t *testing.T) {
+	e := mustEllipse(t, ellipse.Point{X: 10, Y: 5}, 60, 40, 0.3)
+	c := e.Curve()
+	p0, p1 := c.PointAt(0.2), c.PointAt(0.25)
+	segs := []toolpath.Segment{line(p0.X, p0.Y, p1.X, p1.Y), arcAbout(10, 5, 50, 0, 0.1)}
+	for _, s := range segs {
+		if n := testing.AllocsPerRun(100, func() { SegmentDeviation(c, s) }); n != 0 {
+			t.Errorf("%v: %v allocations per call, want 0", s.Kind, n)
+		}
+	}
+}
+
+// benchSegments returns the segments of a typical job: a 600 × 400 mm
+// ellipse within 0.01 mm, as lines or as arcs.
+func benchSegments(b *testing.B, g toolpath.Geometry) (ellipse.Parallel, toolpath.Path) {
+	b.Helper()
+	e := mustEllipse(b, ellipse.Point{X: 350, Y: 250}, 300, 200, 0.2)
+	c := e.Curve()
+	p, err := toolpath.Approximate(nil, toolpath.Spec{Curve: c, Zone: toolpath.Band, Tol: 0.01, Geometry: g, Decimals: -1})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return c, p
+}
+
+// BenchmarkSegmentDeviation reports the cost per segment (ns/op is per
+// segment).
+func BenchmarkSegmentDeviation(b *testing.B) {
+	for _, g := range []toolpath.Geometry{toolpath.Lines, toolpath.Arcs} {
+		b.Run(g.String(), func(b *testing.B) {
+			c, p := benchSegments(b, g)
+			b.ReportAllocs()
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				SegmentDeviation(c, p[i%len(p)])
+			}
+		})
+	}
+}
