@@ -1,6 +1,7 @@
 package preview
 
 import (
+	"math"
 	"strconv"
 
 	"github.com/fogleman/gg"
@@ -23,8 +24,9 @@ type legendPlan struct {
 }
 
 const (
-	sampleW = 44 // width of a legend sample, design units
-	rowH    = 30 // height of a legend row, design units
+	sampleW     = 44  // width of a legend sample, design units
+	rowH        = 30  // height of a legend row, design units
+	maxScaleBar = 220 // longest scale bar, design units
 )
 
 // textWidth measures s in face f.
@@ -119,7 +121,7 @@ func (pic *picture) planLegend(u float64) legendPlan {
 		}})
 	}
 	// Wrap: the first row shares its width with the scale bar.
-	lp.scaleW = 230 * u
+	lp.scaleW = (maxScaleBar + 110) * u
 	m := 28 * u
 	avail := float64(r.width) - 2*m - lp.scaleW
 	x := 0.0
@@ -153,12 +155,10 @@ func (pic *picture) drawLegend() {
 	m := 28 * u
 	y0 := float64(l.height) - pic.legend.height + 12*u
 	dc.SetFontFace(pic.faces.small)
-	// The scale bar: a round length near a fifth of the drawing width, as
-	// black and white halves so it reads on any background.
-	want := (l.areaX1 - l.areaX0) / 5
-	if want > 150*u {
-		want = 150 * u
-	}
+	// The scale bar: the longest round length that fits in a quarter of
+	// the drawing width or maxScaleBar, as black and white halves so it
+	// reads on any background.
+	want := math.Min((l.areaX1-l.areaX0)/4, maxScaleBar*u)
 	length := roundLength(want / l.scale)
 	bw := length * l.scale
 	yMid := y0 + rowH*u/2
