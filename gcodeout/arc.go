@@ -158,7 +158,8 @@ func printedSweep(sx, sy, ex, ey, cx, cy int64, clockwise bool) float64 {
 // unit in X and Y make the radii differ by up to 2√2 units, more than the
 // 2 units the limit allows at 3 mm decimals. The radius difference changes
 // by |u_e − u_s| = 2·sin(sweep/2) ≤ 2 units per unit the centre moves, so
-// one of the nine candidates always brings it within √2 units.
+// (to first order in unit/radius) one of the nine candidates always
+// brings it within √2 units.
 func arcCenter(sx, sy, ex, ey, cx, cy int64, limit float64) (int64, int64, bool) {
 	best := radiusMismatch(sx, sy, ex, ey, cx, cy)
 	bx, by := cx, cy

@@ -45,3 +45,55 @@ func Example() {
 	// G0 Z3
 	// M2
 }
+
+// A router pecks one 3 mm deep hole in two steps, writing segment by
+// segment. The path gives every move, pecks and retracts included; the
+// writer adds only the start and end blocks.
+func ExampleNewWriter() {
+	cfg := gcodeout.Config{
+		Machine: gcodeout.Router, Units: gcodeout.MM,
+		Feed: 800, PlungeFeed: 150, RPM: 16000, SafeZ: 4,
+		Title:  "Peck test",
+		Header: gcodeout.Header{ZeroZ: "top of the test board"},
+	}
+	w, err := gcodeout.NewWriter(os.Stdout, cfg)
+	if err != nil {
+		panic(err)
+	}
+	at := toolpath.Point{Z: 4}
+	move := func(m toolpath.Motion, x, y, z float64) {
+		end := toolpath.Point{X: x, Y: y, Z: z}
+		if err := w.WriteSegment(toolpath.Segment{Kind: toolpath.Line, Motion: m, Start: at, End: end}); err != nil {
+			panic(err)
+		}
+		at = end
+	}
+	move(toolpath.Travel, 25, 12.5, 4)
+	move(toolpath.Cut, 25, 12.5, -1.5)   // first peck
+	move(toolpath.Travel, 25, 12.5, 0.5) // clear the chips
+	move(toolpath.Travel, 25, 12.5, -1.3)
+	move(toolpath.Cut, 25, 12.5, -3) // second peck
+	if err := w.Close(); err != nil {
+		panic(err)
+	}
+	// Output:
+	// (program: Peck test)
+	// (machine: router, units: mm, coordinates to 3 decimals)
+	// (Z0: top of the test board)
+	// (CAUTION - before running it for real:)
+	// (- dry-run it first: cut air with the tool raised clear of the stock)
+	// (- check work zero X Y Z, the clamping and the tool and its holder)
+	// (- keep the guards in place and wear eye and hearing protection)
+	// (- follow the machine maker's instructions and local safety rules)
+	// G21 G17 G90 G94
+	// G0 Z4
+	// M3 S16000
+	// G0 X25 Y12.5
+	// G1 Z-1.5 F150
+	// G0 Z0.5
+	// G0 Z-1.3
+	// G1 Z-3
+	// G0 Z4
+	// M5
+	// M2
+}

@@ -34,12 +34,14 @@ import (
 // inside out (it is then a few units in the last place long), is written
 // as a straight move to its rounded end; an arc of more than half a turn
 // whose rounded ends would cross is written as two arcs of the same
-// circle, split at its middle.
-// An arc that travels is written as a feed move too, since G0 has no arc
-// form. Coordinates must be finite and below 10^15 units in the last place
-// in magnitude (10^12 at 3 decimals).
+// circle, split at its middle. An arc that travels is written as a feed
+// move too, since G0 has no arc form.
 //
-// Errors are *SegmentError values; a refused segment writes nothing.
+// Coordinates must be finite and below 10^15 units in the last place in
+// magnitude (10^12 at 3 decimals). A refused segment is reported as a
+// *SegmentError and writes nothing; the Writer stays usable. WriteSegment
+// also returns the io.Writer's error, and an error wrapping ErrState after
+// Close.
 func (w *Writer) WriteSegment(s toolpath.Segment) error {
 	if w.err != nil {
 		return w.err
