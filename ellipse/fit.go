@@ -56,7 +56,9 @@ type fitSettings struct {
 func FitMaxIterations(n int) FitOption { return func(s *fitSettings) { s.maxIter = n } }
 
 // FitAlgebraicOnly skips the geometric refinement and returns the direct
-// least-squares ellipse, with its orthogonal residuals.
+// least-squares ellipse, with its orthogonal residuals. A nearly round
+// result whose rotation is not determined has its rotation set to 0
+// without a refit.
 func FitAlgebraicOnly() FitOption { return func(s *fitSettings) { s.algebraicOnly = true } }
 
 // FitMinCoverage sets the fraction of the curve, in [0, 1], below which
