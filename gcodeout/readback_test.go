@@ -29,11 +29,10 @@ type readProgram struct {
 	moves   []readMove
 	dwells  []float64 // P of every G4, in order
 	lines   []string
-	units   string // "G20" or "G21"
-	ended   bool   // M2 seen (and it is the last line)
-	setup   int    // line of the modal setup
-	firstM3 int    // line of the first M3, 0 if none
-	sValues []float64
+	units   string    // "G20" or "G21"
+	ended   bool      // M2 seen (and it is the last line)
+	setup   int       // line of the modal setup
+	sValues []float64 // every S word, in order
 }
 
 // numberFormat is the house number format: optional sign, digits, and a
@@ -121,9 +120,6 @@ func readBack(t reporter, text string) readProgram {
 				p.setup = ln
 			case 1003:
 				beam = true
-				if p.firstM3 == 0 {
-					p.firstM3 = ln
-				}
 			case 1005:
 				beam = false
 			case 1002:
@@ -143,6 +139,9 @@ func readBack(t reporter, text string) readProgram {
 		}
 		if hx != hy {
 			t.Errorf("line %d %q: X and Y not written together", ln, line)
+		}
+		if p.setup == 0 {
+			t.Errorf("line %d %q: motion before the units are set", ln, line)
 		}
 		m := readMove{line: ln, g: motion, from: pos, feed: feed, beam: beam, hasZ: hz}
 		to := pos

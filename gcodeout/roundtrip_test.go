@@ -208,6 +208,15 @@ func TestRoundTrip(t *testing.T) {
 		if len(dwells) != len(p.dwells)-pierces(p, j.cfg) {
 			rt.Errorf("%d dwells written for %d in the path", len(p.dwells), len(dwells))
 		}
+		wantS := math.Round(j.cfg.RPM*1000) / 1000
+		if laser {
+			wantS = math.Round(j.cfg.Power*1000) / 1000
+		}
+		for _, v := range p.sValues {
+			if v != wantS {
+				rt.Errorf("S%v, want S%v", v, wantS)
+			}
+		}
 		if !laser {
 			if last := p.moves[len(p.moves)-1]; last.to[2] < j.top-half {
 				rt.Errorf("program ends at Z%v, below the top %v", last.to[2], j.top)
