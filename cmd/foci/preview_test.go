@@ -132,7 +132,7 @@ func TestPreviewRefusesBadInput(t *testing.T) {
 		{"no output", []string{prog}, "-o: is required"},
 		{"no program", []string{"-o", out}, "program to draw is missing"},
 		{"two programs", []string{prog, "-o", out, prog}, "unexpected argument"},
-		{"narrow", []string{prog, "-o", out, "-width", "10"}, "-width: 10 pixels is out of range; use 320 to 12000"},
+		{"narrow", []string{prog, "-o", out, "-width", "10"}, "-width: 10 pixels is out of range; use 480 to 12000"},
 		{"huge", []string{prog, "-o", out, "-height", "99999"}, "-height: 99999 pixels is out of range"},
 		{"negative tool", []string{prog, "-o", out, "-tool", "-3"}, "-tool: -3 must be"},
 		{"offset without shape", []string{prog, "-o", out, "-offset", "2"}, "-offset: does not apply without -size"},

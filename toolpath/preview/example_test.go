@@ -36,5 +36,5 @@ func ExampleRender() {
 	fmt.Println(err)
 	// Output:
 	// 800 x 500 pixels
-	// preview: Width 100: out of range (320 to 12000)
+	// preview: Width 100: out of range (480 to 12000)
 }

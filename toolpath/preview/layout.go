@@ -41,10 +41,10 @@ func clampPixel(v float64) float64 {
 }
 
 // designUnit returns the size of one design unit in pixels for a picture
-// of w × h: 1 at 1600 × 1000, never below 0.75 so that text stays legible.
+// of w × h: 1 at 1600 × 1000, never below 0.7 so that text stays legible.
 func designUnit(w, h int) float64 {
 	u := math.Min(float64(w)/1600, float64(h)/1000)
-	return math.Max(0.75, math.Min(u, 4))
+	return math.Max(0.7, math.Min(u, 4))
 }
 
 // newLayout fits the box (minX, minY)–(maxX, maxY) into a w × h picture

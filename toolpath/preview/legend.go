@@ -120,18 +120,19 @@ func (pic *picture) planLegend(u float64) legendPlan {
 			drawArrow(dc, x+w-10*u, y, 1, 0, u)
 		}})
 	}
-	// Wrap: the first row shares its width with the scale bar.
+	// Wrap: the first row shares its width with the scale bar; an entry
+	// that does not fit starts the next row.
 	lp.scaleW = (maxScaleBar + 110) * u
 	m := 28 * u
-	avail := float64(r.width) - 2*m - lp.scaleW
+	full := float64(r.width) - 2*m
+	avail := full - lp.scaleW
 	x := 0.0
-	row := []int{}
+	var row []int
 	for i, it := range lp.items {
 		w := (sampleW+10)*u + textWidth(pic.faces.small, it.label) + 26*u
-		if x+w > avail && len(row) > 0 {
+		if x+w > avail && (len(row) > 0 || len(lp.rows) == 0) {
 			lp.rows = append(lp.rows, row)
-			row, x = nil, 0
-			avail = float64(r.width) - 2*m
+			row, x, avail = nil, 0, full
 		}
 		row = append(row, i)
 		x += w
@@ -195,7 +196,7 @@ func (pic *picture) drawHeader() {
 	if r.title != "" {
 		dc.SetFontFace(pic.faces.title)
 		dc.SetColor(inkColor)
-		dc.DrawStringAnchored(r.title, m, y, 0, 0.8)
+		dc.DrawStringAnchored(fitText(pic.faces.title, r.title, float64(r.width)-2*m), m, y, 0, 0.8)
 		y += 34 * u
 	}
 	ref := pic.extentRef()
@@ -203,18 +204,44 @@ func (pic *picture) drawHeader() {
 	if !an.hasCut && len(an.holes) == 0 {
 		what = "extent of moves "
 	}
-	line := what + formatLength(an.cutMaxX-an.cutMinX, ref) + " × " + formatLength(an.cutMaxY-an.cutMinY, ref) + " " + r.unit
+	// The figures in order of importance; those that do not fit the
+	// width are left out.
+	parts := []string{what + formatLength(an.cutMaxX-an.cutMinX, ref) + " × " + formatLength(an.cutMaxY-an.cutMinY, ref) + " " + r.unit}
 	if an.hasCut {
-		line += "   ·   cut length " + formatLength(an.cutLength, an.cutLength) + " " + r.unit
-	}
-	if an.hasTrav {
-		line += "   ·   travel " + formatLength(an.travelLength, an.travelLength) + " " + r.unit
+		parts = append(parts, "cut length "+formatLength(an.cutLength, an.cutLength)+" "+r.unit)
 	}
 	if lo, hi, ok := pic.path.ZRange(); ok {
-		line += "   ·   Z " + formatLength(lo, ref) + " to " + formatLength(hi, ref) + " " + r.unit
+		parts = append(parts, "Z "+formatLength(lo, ref)+" to "+formatLength(hi, ref)+" "+r.unit)
 	}
-	line += "   ·   " + strconv.Itoa(len(pic.path)) + " segments"
+	if an.hasTrav {
+		parts = append(parts, "travel "+formatLength(an.travelLength, an.travelLength)+" "+r.unit)
+	}
+	parts = append(parts, strconv.Itoa(len(pic.path))+" segments")
+	line := parts[0]
+	for _, p := range parts[1:] {
+		if next := line + "   ·   " + p; textWidth(pic.faces.text, next) <= float64(r.width)-2*m {
+			line = next
+		}
+	}
 	dc.SetFontFace(pic.faces.text)
 	dc.SetColor(noteColor)
 	dc.DrawStringAnchored(line, m, y, 0, 0.8)
+}
+
+// fitText returns s on one line, control characters as spaces, cut short
+// with an ellipsis when wider than w pixels in face f.
+func fitText(f font.Face, s string, w float64) string {
+	rs := []rune(s)
+	for i, c := range rs {
+		if c < ' ' || c == 0x7f {
+			rs[i] = ' '
+		}
+	}
+	if textWidth(f, string(rs)) <= w {
+		return string(rs)
+	}
+	for len(rs) > 1 && textWidth(f, string(rs)+"…") > w {
+		rs = rs[:len(rs)-1]
+	}
+	return string(rs) + "…"
 }

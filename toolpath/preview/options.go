@@ -14,8 +14,8 @@ const (
 	DefaultWidth  = 1600
 	DefaultHeight = 1000
 	// MinWidth and MinHeight leave room for the title and the legend.
-	MinWidth  = 320
-	MinHeight = 240
+	MinWidth  = 480
+	MinHeight = 320
 	// MaxSide bounds each side so that a typo cannot ask for gigabytes.
 	MaxSide = 12000
 )

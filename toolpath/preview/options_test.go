@@ -161,3 +161,15 @@ func TestCoordinatesBeyondTheLimitAreRefused(t *testing.T) {
 		t.Errorf("error %v, want path[2].End.X out of range with the limit", err)
 	}
 }
+
+func TestFitTextShortensAndCleans(t *testing.T) {
+	f := newFaces(1).text
+	long := strings.Repeat("walnut ", 60)
+	got := fitText(f, long, 300)
+	if !strings.HasSuffix(got, "…") || textWidth(f, got) > 300 {
+		t.Errorf("fitText of a long title = %q (%.0f px), want at most 300 px ending in an ellipsis", got, textWidth(f, got))
+	}
+	if got := fitText(f, "oak\nboard\t1", 1000); got != "oak board 1" {
+		t.Errorf("fitText with control characters = %q, want %q", got, "oak board 1")
+	}
+}

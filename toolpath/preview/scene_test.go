@@ -126,6 +126,8 @@ func coasters() toolpath.Path {
 func TestSceneServingBoard(t *testing.T) {
 	p, e := servingBoard(t, 720)
 	save(t, "board", p, Options{Title: "Oval serving board, 6 mm tool, outside cut", ToolWidth: 6, Intended: []ellipse.Parallel{e.Curve()}})
+	save(t, "board-small", p, Options{Width: MinWidth, Height: MinHeight, Title: "Serving board with a title far too long for a small picture", ToolWidth: 6, Intended: []ellipse.Parallel{e.Curve()}})
+	save(t, "board-inch", p, Options{Width: 1000, Height: 1000, Units: "inch", Title: "Same numbers read as inches"})
 	save(t, "coasters", coasters(), Options{Title: "Three coasters"})
 	save(t, "spiral", spiral(20, 200), Options{Title: "Spiral, 20 turns of arcs", ToolWidth: 3})
 }
