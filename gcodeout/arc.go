@@ -149,10 +149,16 @@ func printedSweep(sx, sy, ex, ey, cx, cy int64, clockwise bool) float64 {
 
 // arcCenter chooses the grid centre to write for an arc from grid point
 // (sx, sy) to (ex, ey) whose rounded true centre is (cx, cy). It keeps
-// (cx, cy) when the start and end radii agree within half the limit
-// (limit is in grid units); otherwise it takes, among the nine grid points
-// within one unit of it, the one where they agree best. It reports false
-// when the radius is zero or no candidate agrees within the limit.
+// (cx, cy) when the start and end radii agree within three quarters of the
+// limit (limit is in grid units); otherwise it takes, among the nine grid
+// points within one unit of it, the one where they agree best. It reports
+// false when the radius is zero or no candidate agrees within the limit.
+//
+// Rounding the ends alone can make the radii differ by up to √2 units
+// whatever the sweep, so the threshold of ¾ of the limit (1.5 units at 3
+// mm decimals) leaves the centre alone unless its own rounding matters,
+// which needs a large sweep; at 4 or more mm decimals, and in inches at 5
+// or more, the limit is 20 units or more and the centre is never moved.
 //
 // Worst case without the search: start, end and centre each off by half a
 // unit in X and Y make the radii differ by up to 2√2 units, more than the
@@ -163,7 +169,7 @@ func printedSweep(sx, sy, ex, ey, cx, cy int64, clockwise bool) float64 {
 func arcCenter(sx, sy, ex, ey, cx, cy int64, limit float64) (int64, int64, bool) {
 	best := radiusMismatch(sx, sy, ex, ey, cx, cy)
 	bx, by := cx, cy
-	if !(best <= limit/2) {
+	if !(best <= 0.75*limit) {
 		for dy := int64(-1); dy <= 1; dy++ {
 			for dx := int64(-1); dx <= 1; dx++ {
 				if m := radiusMismatch(sx, sy, ex, ey, cx+dx, cy+dy); m < best {

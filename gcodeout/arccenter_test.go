@@ -47,7 +47,7 @@ func TestArcCenterSearch(t *testing.T) {
 	if broken == 0 {
 		t.Errorf("no case where the rounded centre broke the limit: the test does not exercise the search")
 	}
-	t.Logf("%d of %d half-circle arcs needed a moved centre", broken, n)
+	t.Logf("%d of %d half-circle arcs would break the limit with the plain rounded centre", broken, n)
 }
 
 func abs64(v int64) int64 {

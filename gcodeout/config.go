@@ -106,7 +106,7 @@ type Header struct {
 // in, far inside the 0.0002 in limit, and the inch grid is no coarser than
 // the mm grid. At 3 mm decimals it could reach 0.0028 mm against a limit of
 // 0.002 mm, so the writer moves an arc's centre by one unit when rounding
-// alone would break the limit (see [Writer.WriteSegment]).
+// alone would come near the limit (see [Writer.WriteSegment]).
 func MinDecimals(units Units) int {
 	if units == Inch {
 		return 5

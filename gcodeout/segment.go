@@ -22,8 +22,9 @@ import (
 // written start to the written centre, never R. A full circle (Start ==
 // End) is one G2 or G3 whose X Y repeat the start. The start and end radii
 // of the written arc agree within the RS274NGC limit (0.002 mm or
-// 0.0002 in): when rounding the centre to the grid would break it, the
-// writer takes the best grid point within one unit of the rounded centre.
+// 0.0002 in): when the rounded centre would bring them within a quarter of
+// the limit of breaking it (possible only at 3 mm decimals), the writer
+// takes the best grid point within one unit of the rounded centre.
 //
 // A segment must start where the previous one ended (within one unit in
 // the last place); the first must start at the start-block height for a
