@@ -39,7 +39,10 @@ func newFlagSet(name, synopsis string, w io.Writer) *flag.FlagSet {
 	fs.SetOutput(w)
 	fs.Usage = func() {
 		fmt.Fprintf(w, "Usage: foci %s\n\nFlags:\n", synopsis)
+		out := fs.Output()
+		fs.SetOutput(w)
 		fs.PrintDefaults()
+		fs.SetOutput(out)
 	}
 	return fs
 }
@@ -50,7 +53,6 @@ func parseFlags(fs *flag.FlagSet, args []string, allowArgs int) error {
 	fs.SetOutput(io.Discard)
 	err := fs.Parse(args)
 	if errors.Is(err, flag.ErrHelp) {
-		fs.SetOutput(nil)
 		return errHelp
 	}
 	if err != nil {
