@@ -38,29 +38,47 @@ const (
 	piC = -3.4302489988857658e-15
 )
 
-// reduce returns n and r with t = n·π + r and r ∈ [−π/2, π/2] (to within
-// rounding at the ends).
+// reduce returns n and r with t = n·π + r and r ∈ [−π/2, π/2].
 func reduce(t float64) (n, r float64) {
-	n = math.Round(t / math.Pi)
-	r = ((t - n*piA) - n*piB) - float64(n*piC)
-	return n, r
+	return reduceHalf(t, 0)
 }
 
 // reduceFrame returns n and r with τ = n·π + r for the internal parameter
 // τ = t − phase·π/2 (see the top of this file), r ∈ [−π/2, π/2].
 func (e Ellipse) reduceFrame(t float64) (n, r float64) {
-	if e.phase == 0 {
-		return reduce(t)
-	}
-	n = math.Round(t/math.Pi - 0.5)
-	h := n + 0.5 // exact
+	return reduceHalf(t, e.phase)
+}
+
+// reduceHalf returns n and r with t − phase·π/2 = n·π + r, r ∈ [−π/2, π/2],
+// for phase 0 or 1. The quotient t/π is rounded, so n may be one off near
+// the ends of the range; r is then moved back by π, because the Carlson
+// form of L is even in cos r and would continue on the wrong branch.
+func reduceHalf(t, phase float64) (n, r float64) {
+	off := phase / 2
+	n = math.Round(t/math.Pi - off)
+	h := n + off // exact: at most 29 significant bits for |n| < 2^28
 	r = ((t - h*piA) - h*piB) - float64(h*piC)
+	switch {
+	case r > math.Pi/2:
+		n++
+		h++
+		r = ((t - h*piA) - h*piB) - float64(h*piC)
+	case r < -math.Pi/2:
+		n--
+		h--
+		r = ((t - h*piA) - h*piB) - float64(h*piC)
+	}
 	return n, r
 }
 
-// fromFrame returns t for the half-turn count n and reduced parameter r.
+// fromFrame returns t for the half-turn count n and reduced parameter r,
+// the inverse of reduceFrame: t = h·π + r with h = n + phase/2, summed
+// with the three-part π so that t is correctly rounded (h·math.Pi alone
+// would be off by h·1.2e-16, which on the end caps of a parallel curve
+// of a flat ellipse is a visible length).
 func (e Ellipse) fromFrame(n, r float64) float64 {
-	return (n+0.5*e.phase)*math.Pi + r
+	h := n + e.phase/2
+	return h*piA + (h*piB + (float64(h*piC) + r))
 }
 
 // quarterLength returns the quarter perimeter of the ellipse with

@@ -12,12 +12,13 @@ import "math"
 //
 //	F(s) = (r0·z0/(s + r0))² + (z1/(s + 1))² − 1,  r0 = (a/b)², z = p/(a, b)
 //
-// in Eberly's bracket. Newton steps from s = 0 (the root for points on the
-// curve) are kept inside the bracket; a step that leaves it is replaced by
-// a bisection in log(s + 1), which copes with points close to the major
-// axis where the root sits near the pole. Points on either axis and at the
+// in Eberly's bracket, here in the variable u = s + 1 so that roots near
+// the pole s = −1 (points near the centre, or near the major axis inside
+// the evolute) keep their digits. Newton steps from u = 1 (the root for
+// points on the curve) are kept inside the bracket; a step that leaves it
+// is replaced by a bisection in log u. Points on either axis and at the
 // centre take Eberly's closed forms. The result is exact to a few ulps of
-// the larger of |d| and b·1e-3.
+// the larger of |d| and the semi-major axis.
 //
 // Special cases are:
 //
@@ -67,14 +68,16 @@ func eberlyFoot(e0, e1, y0, y1 float64) (x0, x1, dist float64) {
 	if y1 > 0 {
 		if y0 > 0 {
 			z0, z1 := y0/e0, y1/e1
-			g := z0*z0 + z1*z1 - 1
+			g := float64(z0*z0) + float64(z1*z1) - 1
 			if g == 0 {
 				return y0, y1, 0
 			}
-			r0 := (e0 / e1) * (e0 / e1)
-			s := eberlyRoot(r0, z0, z1, g)
-			x0 = r0 * y0 / (s + r0)
-			x1 = y1 / (s + 1)
+			r := e0 / e1
+			r0 := r * r
+			r0m1 := float64((e0-e1)*(e0+e1)) / float64(e1*e1) // r0 − 1 without cancellation
+			u := eberlyRoot(r0, r0m1, z0, z1, g)
+			x0 = r0 * y0 / (u + r0m1)
+			x1 = y1 / u
 			return x0, x1, math.Hypot(x0-y0, x1-y1)
 		}
 		return 0, e1, math.Abs(y1 - e1)
@@ -90,44 +93,54 @@ func eberlyFoot(e0, e1, y0, y1 float64) (x0, x1, dist float64) {
 	return e0, 0, math.Abs(y0 - e0)
 }
 
-// eberlyRoot returns the root of F (see SignedDistance) for z0, z1 > 0.
-func eberlyRoot(r0, z0, z1, g float64) float64 {
+// eberlyRoot returns u = s + 1 at the root s of F (see SignedDistance)
+// for z0, z1 > 0, g = z0² + z1² − 1. In Eberly's variable s the root of a
+// point near the centre or near the major axis inside the evolute lies
+// just above the pole s = −1, where a double resolves s + 1 only to 1e-16
+// absolutely; in u the pole is at 0 and the root keeps its relative
+// precision:
+//
+//	F(u) = S(u) − 1,  S(u) = (r0·z0/(u + r0 − 1))² + (z1/u)²,
+//
+// decreasing for u > 0, with F(z1) ≥ 0 ≥ F(1) inside and
+// F(1) ≥ 0 ≥ F(√((r0·z0)² + z1²)) outside. Newton's method is applied not
+// to F, whose inverse-square shape makes steps from the left creep by a
+// factor 1.5, but to the increasing Ψ(u) = S^(−1/2) − 1, which is linear
+// in u for a circle and nearly so elsewhere: its step is
+// S·(√S − 1)/(p²/(u + r0 − 1) + q²/u) with p, q the two terms' roots.
+func eberlyRoot(r0, r0m1, z0, z1, g float64) float64 {
 	n0 := r0 * z0
-	lo := z1 - 1 // F(lo) ≥ 0
-	hi := 0.0    // F(hi) ≤ 0 when g < 0
+	lo, hi := z1, 1.0 // inside: F(lo) ≥ 0 ≥ F(hi)
 	if g > 0 {
-		lo = 0
-		hi = math.Hypot(n0, z1) - 1
+		lo, hi = 1, math.Hypot(n0, z1)
 	}
-	s := 0.0
+	u := 1.0 // the root for points on the curve
 	for i := 0; i < 200; i++ {
-		a := n0 / (s + r0)
-		b := z1 / (s + 1)
-		f := a*a + b*b - 1
-		if f == 0 {
-			return s
+		p := n0 / (u + r0m1)
+		q := z1 / u
+		sum := float64(p*p) + float64(q*q)
+		if sum == 1 {
+			return u
 		}
-		if f > 0 {
-			lo = s
+		if sum > 1 {
+			lo = u
 		} else {
-			hi = s
+			hi = u
 		}
-		fp := -2 * (a*a/(s+r0) + b*b/(s+1))
-		next := s - f/fp
+		d := float64(p*p)/(u+r0m1) + float64(q*q)/u
+		next := u + sum*(math.Sqrt(sum)-1)/d
 		if !(next > lo && next < hi) {
-			// Bisect in log(s + 1): the scale near the pole at −1.
-			next = -1 + math.Sqrt((lo+1)*(hi+1))
+			// Bisect in log u, the scale near the pole (each root
+			// separately: lo·hi may underflow).
+			next = math.Sqrt(lo) * math.Sqrt(hi)
 			if !(next > lo && next < hi) {
 				next = lo + (hi-lo)/2
 			}
 		}
-		if next == s || hi-lo <= 4e-16*(math.Abs(s)+1) {
+		if next == u || hi-lo <= 0x1p-52*hi || math.Abs(next-u) <= 0x1p-53*u {
 			return next
 		}
-		if math.Abs(next-s) <= 1e-16*(math.Abs(s)+1) {
-			return next
-		}
-		s = next
+		u = next
 	}
-	return s
+	return u
 }

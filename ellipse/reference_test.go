@@ -88,8 +88,14 @@ func within(got, want, tol, scale float64) bool {
 	return math.Abs(got-want) <= tol*scale
 }
 
+// fataler is what mustNew needs of a *testing.T, *testing.B or *rapid.T.
+type fataler interface {
+	Helper()
+	Fatalf(format string, args ...any)
+}
+
 // mustNew builds an ellipse for a test, failing the test on error.
-func mustNew(t testing.TB, c Point, rx, ry, rot float64) Ellipse {
+func mustNew(t fataler, c Point, rx, ry, rot float64) Ellipse {
 	t.Helper()
 	e, err := New(c, rx, ry, rot)
 	if err != nil {

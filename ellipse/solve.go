@@ -29,9 +29,11 @@ func (e Ellipse) guess(u, dn float64) float64 {
 // scale, after which the iteration stops without another evaluation:
 // Halley's error is cubic, e_{n+1} ≈ K·e_n³ with K of order 1/ρ² for a
 // length scale ρ over which the speed changes, so a step h ≤ 1e-6·ρ leaves
-// an error of order 1e-18·ρ, below rounding; the step must also leave
-// h³/ρ² below half an ulp of the result, which matters only for results
-// near 0. The scaled speed itself serves as ρ: near the ends of the major
+// an error of order 1e-18·ρ, below rounding. For results near 0 two more
+// conditions matter: h³/ρ² must be below half an ulp of the result, and
+// h at most 1e-3 of it, because a step computed at r carries the rounding
+// of the length there, an ulp of r, into the next iterate. The scaled
+// speed itself serves as ρ: near the ends of the major
 // axis of a flat ellipse both shrink to b/a, and elsewhere ρ is at least
 // the speed. For a parallel curve the smaller of that and its own speed is
 // used.
@@ -88,8 +90,8 @@ func (e Ellipse) solveReduced(w, dn, r0 float64) (float64, int) {
 		next := r + step
 		if !(den > 0 && next > lo && next < hi) {
 			next = lo + (hi-lo)/2
-		} else if rho := math.Min(v, fp); math.Abs(step) <= cubicStop*rho &&
-			float64(step*step)*math.Abs(step) <= 0x1p-54*math.Abs(next)*float64(rho*rho) {
+		} else if rho, h := math.Min(v, fp), math.Abs(step); h <= cubicStop*rho && h <= 1e-3*math.Abs(next) &&
+			float64(h*h)*h <= 0x1p-54*math.Abs(next)*float64(rho*rho) {
 			return next, i
 		}
 		if next == r || hi-lo <= 0x1p-52*math.Max(1, math.Abs(r)) {
@@ -102,18 +104,33 @@ func (e Ellipse) solveReduced(w, dn, r0 float64) (float64, int) {
 
 // polishNearStart refines a parameter t found in the internal frame when
 // that frame starts a quarter turn away (own y axis the major one): there
-// the reduced length w − qd has lost the digits of a short w. If the arc
-// from 0 to t is short enough to be integrated directly, one Newton step
-// on that arc restores them (the error is already of order 1e-16, so the
-// step leaves one of order 1e-32).
+// the reduced length w − qd has lost the digits of a short w, leaving an
+// absolute error of order 1e-16 in t. If the arc from 0 to t is short
+// enough to be integrated directly, Newton steps on that arc restore them.
+// Each step leaves about an ulp of its starting point (the arc is exact
+// only to its own ulps), so a tiny t starts instead from w over the speed
+// at 0, where the speed is stationary and that guess is already close.
 func (e Ellipse) polishNearStart(t, w, dn float64) float64 {
 	_, r0 := e.reduceFrame(0)
-	if math.Abs(t) > e.quadSpan(r0+t/2) {
+	span := e.quadSpan(r0 + t/2)
+	if math.Abs(t) > span {
 		return t
 	}
-	g := e.scaledArc(0, t, dn) - w
-	s, c := math.Sincos(t)
-	v := math.Sqrt(e.speed2(s, c))
-	fp := v + dn*e.k/(float64(v*v))
-	return t - g/fp
+	speed := func(t float64) float64 {
+		s, c := math.Sincos(t)
+		v := math.Sqrt(e.speed2(s, c))
+		return v + dn*e.k/float64(v*v)
+	}
+	if lin := w / speed(0); math.Abs(lin) < 1e-3*span {
+		t = lin
+	}
+	for i := 0; i < 4; i++ {
+		g := e.scaledArc(0, t, dn) - w
+		step := g / speed(t)
+		t -= step
+		if math.Abs(step) <= 0x1p-54*math.Abs(t) {
+			break
+		}
+	}
+	return t
 }
