@@ -2,6 +2,7 @@ package preview
 
 import (
 	"math"
+	"sort"
 
 	"github.com/focitools/foci/toolpath"
 	"github.com/focitools/foci/toolpath/internal/plan"
@@ -110,7 +111,8 @@ const arrowSpacing = 170
 
 // drawDirection marks the start of the first cut, puts arrows at equal
 // plan length along the first cut loop and two arrows on every later
-// closed loop (an inside contour may run the other way).
+// closed loop (an inside contour may run the other way), leaving out
+// those that repeat an arrow of an earlier pass.
 func (pic *picture) drawDirection() {
 	an := pic.an
 	if !an.hasStart {
@@ -118,9 +120,11 @@ func (pic *picture) drawDirection() {
 	}
 	u := pic.lay.unit
 	tabs := pic.tabPoints()
+	var drawn []arrowMark
+	var w loopWalk
 	for k, lp := range an.loops {
-		total := pic.loopLength(lp)
-		pxLen := total * pic.lay.scale
+		w.reset(pic, lp)
+		pxLen := w.total * pic.lay.scale
 		n := 2
 		if k == 0 {
 			n = max(2, min(int(math.Round(pxLen/(arrowSpacing*u))), 14))
@@ -131,21 +135,103 @@ func (pic *picture) drawDirection() {
 			}
 			n = 1
 		}
-		pic.arrowsAlong(lp, total, n, tabs)
+		drawn = pic.arrowsAlong(&w, n, tabs, drawn, k > 0)
 	}
 	x, y := pic.lay.px(an.start.X, an.start.Y)
 	drawStartMark(pic.dc, x, y, u)
 }
 
-// loopLength returns the plan length of the cutting moves in lp.
-func (pic *picture) loopLength(lp span) float64 {
-	total := 0.0
+// loopWalk finds points by plan length along one cut loop.
+type loopWalk struct {
+	pic   *picture
+	segs  []int     // the cutting segments of the loop
+	cum   []float64 // plan length at the end of each
+	total float64
+}
+
+// reset prepares w for loop lp, reusing its buffers.
+func (w *loopWalk) reset(pic *picture, lp span) {
+	w.pic, w.segs, w.cum, w.total = pic, w.segs[:0], w.cum[:0], 0
 	for i := lp.from; i < lp.to; i++ {
 		if pic.an.classes[i].Cuts() {
-			total += planLength(&pic.path[i])
+			w.total += planLength(&pic.path[i])
+			w.segs = append(w.segs, i)
+			w.cum = append(w.cum, w.total)
 		}
 	}
-	return total
+}
+
+// at returns the pixel position at plan length d (held within the loop)
+// and the index of the segment there.
+func (w *loopWalk) at(d float64) (x, y float64, seg int) {
+	d = math.Max(0, math.Min(d, w.total))
+	j := sort.SearchFloat64s(w.cum, d)
+	j = min(j, len(w.segs)-1)
+	s := &w.pic.path[w.segs[j]]
+	l := planLength(s)
+	start := w.cum[j] - l
+	f := 0.0
+	if l > 0 {
+		f = math.Max(0, math.Min(1, (d-start)/l))
+	}
+	q := s.At(f)
+	x, y = w.pic.lay.px(q.X, q.Y)
+	return x, y, w.segs[j]
+}
+
+// arrowMark is an arrow drawn: its pixel position and direction.
+type arrowMark struct{ x, y, dx, dy float64 }
+
+// repeats reports whether an arrow at (x, y) pointing along (dx, dy)
+// would repeat one of drawn: pointing the same way within half the arrow
+// spacing, as on a later pass over the same line.
+func repeats(drawn []arrowMark, x, y, dx, dy, u float64) bool {
+	r := arrowSpacing / 2 * u
+	for _, a := range drawn {
+		if (a.x-x)*(a.x-x)+(a.y-y)*(a.y-y) < r*r && a.dx*dx+a.dy*dy > 0.7 {
+			return true
+		}
+	}
+	return false
+}
+
+// arrowsAlong draws n arrows at the middles of n equal parts of the loop,
+// each moved on along the loop where it would cover a tab mark. An arrow
+// points along the chord between the points 8 design units before and
+// after it, so that it shows the direction of the cut, not of a segment
+// smaller than the arrow. With sparse, an arrow that repeats one already
+// drawn is left out. It returns drawn with the new arrows added.
+func (pic *picture) arrowsAlong(w *loopWalk, n int, tabs []plan.Point, drawn []arrowMark, sparse bool) []arrowMark {
+	u := pic.lay.unit
+	if len(w.segs) == 0 || w.total <= 0 {
+		return drawn
+	}
+	step := 6 * u / pic.lay.scale
+	half := 8 * u / pic.lay.scale
+	for k := 0; k < n; k++ {
+		base := w.total * (float64(k) + 0.5) / float64(n)
+		for shift := 0.0; shift < w.total/float64(2*n); shift += step {
+			d := base + shift
+			x, y, i := w.at(d)
+			if pic.an.classes[i] == plan.Tab || nearAny(tabs, x, y, 20*u) {
+				continue
+			}
+			x0, y0, _ := w.at(d - half)
+			x1, y1, _ := w.at(d + half)
+			dx, dy := x1-x0, y1-y0
+			l := math.Hypot(dx, dy)
+			if l == 0 {
+				break
+			}
+			dx, dy = dx/l, dy/l
+			if !sparse || !repeats(drawn, x, y, dx, dy, u) {
+				drawArrow(pic.dc, x, y, dx, dy, u)
+				drawn = append(drawn, arrowMark{x, y, dx, dy})
+			}
+			break
+		}
+	}
+	return drawn
 }
 
 // tabPoints returns pixel points along the tab stretches, about every
@@ -179,37 +265,4 @@ func nearAny(pts []plan.Point, x, y, r float64) bool {
 		}
 	}
 	return false
-}
-
-// arrowsAlong draws n arrows at the middles of n equal parts of the loop,
-// each moved on along the loop where it would cover a tab mark.
-func (pic *picture) arrowsAlong(lp span, total float64, n int, tabs []plan.Point) {
-	u := pic.lay.unit
-	shiftStep := 6 * u / pic.lay.scale
-	k, walked, shift := 0, 0.0, 0.0
-	for i := lp.from; i < lp.to && k < n; i++ {
-		s := &pic.path[i]
-		if !pic.an.classes[i].Cuts() {
-			continue
-		}
-		l := planLength(s)
-		for k < n {
-			at := total*(float64(k)+0.5)/float64(n) + shift
-			if at > walked+l {
-				break
-			}
-			f := max(0, (at-walked)/l)
-			q := s.At(f)
-			x, y := pic.lay.px(q.X, q.Y)
-			if pic.an.classes[i] == plan.Tab || (nearAny(tabs, x, y, 20*u) && shift < total/float64(2*n)) {
-				shift += shiftStep
-				continue
-			}
-			dx, dy := direction(s, f)
-			drawArrow(pic.dc, x, y, dx, -dy, u)
-			k++
-			shift = 0
-		}
-		walked += l
-	}
 }

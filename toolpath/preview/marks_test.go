@@ -140,3 +140,66 @@ func darkest(img interface {
 	}
 	return v
 }
+
+// arrowsOf draws the picture of p and returns n arrows along its first
+// loop, as drawDirection places them.
+func arrowsOf(t *testing.T, p toolpath.Path, n int) ([]arrowMark, *picture) {
+	t.Helper()
+	r, err := resolve(Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	pic := newPicture(p, &r)
+	if len(pic.an.loops) == 0 {
+		t.Fatal("no loop found")
+	}
+	var w loopWalk
+	w.reset(pic, pic.an.loops[0])
+	return pic.arrowsAlong(&w, n, nil, nil, false), pic
+}
+
+func TestArrowsPointTheWayTheToolGoes(t *testing.T) {
+	for _, cw := range []bool{false, true} {
+		b := &builder{pos: toolpath.Point{X: 50, Z: 5}}
+		b.feed(50, 0, -1)
+		b.arc(0, 0, 50, 0, -1, cw)
+		marks, pic := arrowsOf(t, b.p, 6)
+		if len(marks) != 6 {
+			t.Fatalf("clockwise %v: %d arrows, want 6", cw, len(marks))
+		}
+		cx, cy := pic.lay.px(0, 0)
+		for _, m := range marks {
+			// In pixels (y down) a counter-clockwise turn about the centre
+			// goes along (oy, -ox) at offset (ox, oy).
+			ox, oy := m.x-cx, m.y-cy
+			r := math.Hypot(ox, oy)
+			tx, ty := oy/r, -ox/r
+			if cw {
+				tx, ty = -tx, -ty
+			}
+			if m.dx*tx+m.dy*ty < 0.98 {
+				t.Errorf("clockwise %v: arrow at (%.0f, %.0f) points (%.2f, %.2f), want (%.2f, %.2f)", cw, m.x, m.y, m.dx, m.dy, tx, ty)
+			}
+		}
+	}
+}
+
+func TestArrowsFollowTheCutNotItsWiggles(t *testing.T) {
+	// A cut along +x made of steps 0.1 forward and 0.05 back, each with a
+	// sideways wiggle: every other segment runs backwards.
+	b := &builder{pos: toolpath.Point{Z: 5}}
+	b.feed(0, 0, -1)
+	for x := 0.0; x < 200; x += 0.05 {
+		b.feed(x+0.1, 0.01, -1)
+		b.feed(x+0.05, -0.01, -1)
+	}
+	marks, _ := arrowsOf(t, b.p, 5)
+	for _, m := range marks {
+		if m.dx < 0.95 {
+			t.Errorf("arrow at (%.0f, %.0f) points (%.2f, %.2f), want along +x", m.x, m.y, m.dx, m.dy)
+		}
+	}
+	if len(marks) != 5 {
+		t.Errorf("%d arrows, want 5", len(marks))
+	}
+}
