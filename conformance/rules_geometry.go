@@ -128,27 +128,54 @@ func (g *geometry) walk() {
 			continue // a plunge or a lift inside the cut: joins, measures nothing
 		}
 		t0, d0 := g.foot(s.Start.X, s.Start.Y)
-		lo, hi := SegmentDeviation(g.curve, *s)
-		dt := g.turn(s, t0)
 		_, d1 := g.foot(s.End.X, s.End.Y)
+		var lo, hi float64
+		measured := false
 		lead := false
-		switch g.r.Shape.Zone {
-		case toolpath.Outside:
-			lead = (g.away(d0) || g.away(d1)) && lo >= g.zlo-g.tiny
-		case toolpath.Inside:
-			lead = (g.away(d0) || g.away(d1)) && hi <= g.zhi+g.tiny
+		if (g.away(d0) || g.away(d1)) && g.r.Shape.Zone != toolpath.Band {
+			// The deviation changes no faster than the distance along
+			// the move, so d ≥ (d0 + d1 − L)/2 everywhere on it: often
+			// enough to place a lead in the waste without measuring.
+			l := s.Length()
+			if g.r.Shape.Zone == toolpath.Outside {
+				lead = (d0+d1-l)/2 >= g.zlo
+			} else {
+				lead = (d0+d1+l)/2 <= g.zhi
+			}
+			if !lead {
+				lo, hi = SegmentDeviation(g.curve, *s)
+				measured = true
+				if g.r.Shape.Zone == toolpath.Outside {
+					lead = lo >= g.zlo-g.tiny
+				} else {
+					lead = hi <= g.zhi+g.tiny
+				}
+			}
 		}
 		if lead {
 			g.sum.Lead++
 			continue
 		}
+		rough := false
+		if !measured {
+			if l := s.Length(); (d0+d1-l)/2 > g.zhi+g.tol || (d0+d1+l)/2 < g.zlo-g.tol {
+				// Wholly outside the zone, by the same bound: a few
+				// samples say how far, without the dense measure that
+				// a move far from the curve makes costly.
+				lo, hi = g.roughDeviation(s, d0, d1)
+				rough = true
+			} else {
+				lo, hi = SegmentDeviation(g.curve, *s)
+			}
+		}
+		dt := g.turn(s, t0)
 		g.sum.Contour++
 		if lo == lo && hi == hi {
 			g.sum.DeviationLo = math.Min(g.sum.DeviationLo, lo)
 			g.sum.DeviationHi = math.Max(g.sum.DeviationHi, hi)
 		}
 		if lo < g.zlo-g.tiny || hi > g.zhi+g.tiny || lo != lo || hi != hi {
-			g.deviation(i, lo, hi)
+			g.deviation(i, lo, hi, rough)
 		}
 		cm := contourMove{index: i, t0: t0, dt: dt, runID: run, lineNum: p.Moves[i].Line,
 			low: math.Min(s.Start.Z, s.End.Z), flat: math.Abs(s.Start.Z-s.End.Z) <= levelEps}
@@ -160,14 +187,33 @@ func (g *geometry) walk() {
 	}
 }
 
-func (g *geometry) deviation(i int, lo, hi float64) {
+// roughDeviation samples the deviation of a move at its ends and seven
+// points between.
+func (g *geometry) roughDeviation(s *toolpath.Segment, d0, d1 float64) (lo, hi float64) {
+	lo, hi = math.Min(d0, d1), math.Max(d0, d1)
+	for k := 1; k < 8; k++ {
+		q := s.At(float64(k) / 8)
+		_, d := g.el.Nearest(ellipse.Point{X: q.X, Y: q.Y})
+		d -= g.curve.Offset()
+		lo, hi = math.Min(lo, d), math.Max(hi, d)
+	}
+	return lo, hi
+}
+
+// deviation reports a contour move outside the zone; rough says its
+// extremes come from a few samples only.
+func (g *geometry) deviation(i int, lo, hi float64, rough bool) {
 	line := g.p.Moves[i].Line
 	if g.c.full(RuleDeviation) {
 		g.c.skip(RuleDeviation, line)
 		return
 	}
 	u := unitName(g.p)
-	msg := "the move deviates from " + fmtDev(lo) + " to " + fmtDev(hi) + u + " from the curve; the " +
+	verb := "the move deviates from "
+	if rough {
+		verb = "the move lies wholly outside the zone, deviating from about "
+	}
+	msg := verb + fmtDev(lo) + " to " + fmtDev(hi) + u + " from the curve; the " +
 		g.r.Shape.Zone.String() + " zone allows " + fmtDev(g.zlo) + " to " + fmtDev(g.zhi) + u
 	switch {
 	case lo != lo || hi != hi:

@@ -15,9 +15,10 @@ type simulator struct {
 	line        int
 	blk         block
 
-	pathUnitsSet bool  // s.p.Units is decided
-	active       Units // G20/G21 in force, UnitsUnset before any
-	scale        float64
+	pathUnitsSet bool    // s.p.Units is decided
+	active       Units   // G20/G21 in force, UnitsUnset before any
+	written      Units   // the unit the current line is written in
+	scale        float64 // turns the current line's lengths into the path's
 
 	pos                 toolpath.Point
 	knownX, knownY      bool // the program has given X, Y
@@ -32,7 +33,7 @@ type simulator struct {
 }
 
 func newSimulator(opts ReadOptions) *simulator {
-	s := &simulator{p: &Program{}, maxProblems: opts.MaxProblems, motion: -1, tool: -1, scale: 1}
+	s := &simulator{p: &Program{}, maxProblems: opts.MaxProblems, motion: -1, tool: -1, scale: 1, written: Millimeters}
 	if s.maxProblems <= 0 {
 		s.maxProblems = defaultMaxProblems
 	}
@@ -42,31 +43,22 @@ func newSimulator(opts ReadOptions) *simulator {
 	return s
 }
 
-// decideUnits fixes the path's unit the first time a length is needed.
-func (s *simulator) decideUnits() {
+// decideUnits fixes the path's unit the first time a length is needed:
+// the unit the line is written in, else millimetres.
+func (s *simulator) decideUnits(written Units) {
 	if s.pathUnitsSet {
 		return
 	}
 	s.pathUnitsSet = true
-	s.p.Units = s.active
+	s.p.Units = written
 	if s.p.Units == UnitsUnset {
 		s.p.Units = Millimeters
 	}
-	s.scale = unitFactor(s.lineUnits(), s.p.Units)
 }
 
-// lineUnits is the unit numbers on the current line are written in.
-func (s *simulator) lineUnits() Units {
-	if s.active == UnitsUnset {
-		if s.pathUnitsSet {
-			return s.p.Units
-		}
-		return Millimeters
-	}
-	return s.active
-}
-
-// runLine lexes and runs one source line.
+// runLine lexes and runs one source line. Everything that can refuse the
+// line is settled before any state changes, so a refused line leaves no
+// trace but its problem.
 func (s *simulator) runLine(line []byte) {
 	if s.ended {
 		s.afterEnd(line)
@@ -76,30 +68,53 @@ func (s *simulator) runLine(line []byte) {
 		return
 	}
 	b := &s.blk
-	if !b.words {
+	if !b.words || !s.checkWords() {
 		return
 	}
-	// Units first: a units word applies to the whole line it is on.
+	// The unit the line is written in: a units word applies to the whole
+	// line it is on.
+	written := s.active
 	if b.units >= 0 {
-		u := Millimeters
+		written = Millimeters
 		if b.units == 200 {
-			u = Inches
+			written = Inches
 		}
-		if s.p.Declared == UnitsUnset {
-			s.p.Declared, s.p.UnitsLine = u, s.line
+	}
+	if b.units >= 0 || b.has&(bitF|bitsAxis|bitI|bitJ|bitR) != 0 || b.dwell >= 0 {
+		s.decideUnits(written)
+	}
+	if written == UnitsUnset {
+		written = s.p.Units // no units word yet: the path's, once decided
+		if !s.pathUnitsSet {
+			written = Millimeters
 		}
-		s.active = u
-		s.decideUnits()
-		s.scale = unitFactor(u, s.p.Units)
 	}
-	if !s.checkWords() {
-		return
+	s.written = written
+	s.scale = unitFactor(written, s.p.Units)
+	incremental := s.incremental
+	switch b.distance {
+	case 900:
+		incremental = false
+	case 910:
+		incremental = true
 	}
-	// The order of execution of RS274NGC (NISTIR 6556 §3.8, table 8):
-	// feed, speed, tool, spindle, dwell, plane, units (done above),
+	motion := s.motion
+	if b.motion >= 0 {
+		motion = b.motion
+	}
+	moves := b.has&bitsAxis != 0 || motion >= 20 && b.has&(bitI|bitJ|bitR) != 0
+	var seg toolpath.Segment
+	var flags uint8
+	if moves {
+		var ok bool
+		if seg, flags, ok = s.plan(motion, incremental); !ok {
+			return
+		}
+	}
+	// Run the line in the order of execution of RS274NGC (NISTIR 6556
+	// §3.8, table 8): feed, speed, tool, spindle, dwell, plane, units,
 	// distance mode, motion, stop.
 	if b.has&bitF != 0 {
-		s.decideUnits()
 		s.feed = b.val['F'-'A'] * s.scale
 	}
 	if b.has&bitS != 0 {
@@ -117,19 +132,18 @@ func (s *simulator) runLine(line []byte) {
 		s.spindle = SpindleOff
 	}
 	if b.dwell >= 0 {
-		s.dwell(b.val['P'-'A'])
+		s.emit(toolpath.Segment{Kind: toolpath.Dwell, Motion: toolpath.Travel, Start: s.pos, End: s.pos, Seconds: b.val['P'-'A']}, 4, 0)
 	}
-	switch b.distance {
-	case 900:
-		s.incremental = false
-	case 910:
-		s.incremental = true
+	if b.units >= 0 {
+		if s.p.Declared == UnitsUnset {
+			s.p.Declared, s.p.UnitsLine = written, s.line
+		}
+		s.active = written
 	}
-	if b.motion >= 0 {
-		s.motion = b.motion
-	}
-	if b.has&bitsAxis != 0 || b.motion >= 20 && b.has&(bitI|bitJ|bitR) != 0 {
-		s.move()
+	s.incremental = incremental
+	s.motion = motion
+	if moves {
+		s.commit(seg, flags, uint8(motion/10))
 	}
 	if b.stop >= 0 {
 		s.ended = true
@@ -206,39 +220,29 @@ func (s *simulator) afterEnd(line []byte) {
 	}
 }
 
-// dwell appends a G4 pause at the current position.
-func (s *simulator) dwell(seconds float64) {
-	s.decideUnits()
-	s.emit(toolpath.Segment{Kind: toolpath.Dwell, Motion: toolpath.Travel, Start: s.pos, End: s.pos, Seconds: seconds}, 4, 0)
-}
-
-// target returns the end point of a move from the axis words on the line.
-func (s *simulator) target() toolpath.Point {
+// plan works out the segment of the line's move in the given motion mode
+// and distance mode, without changing any state. An axis the program has
+// not given before starts where this line sends it (absolute mode) or at
+// 0 (incremental mode).
+func (s *simulator) plan(motion int16, incremental bool) (toolpath.Segment, uint8, bool) {
 	b := &s.blk
-	end := s.pos
-	axis := func(bit uint32, letter byte, cur *float64, out *float64) {
+	start, end := s.pos, s.pos
+	var flags uint8
+	axis := func(bit uint32, letter byte, known bool, start, end *float64) {
 		if b.has&bit == 0 {
 			return
 		}
 		v := b.val[letter-'A'] * s.scale
-		if s.incremental {
-			v += *cur
+		if incremental {
+			v += *start
+		} else if !known {
+			*start = v
 		}
-		*out = v
+		*end = v
 	}
-	axis(bitX, 'X', &s.pos.X, &end.X)
-	axis(bitY, 'Y', &s.pos.Y, &end.Y)
-	axis(bitZ, 'Z', &s.pos.Z, &end.Z)
-	return end
-}
-
-// move runs the motion of the line in the motion mode in force.
-func (s *simulator) move() {
-	s.decideUnits()
-	b := &s.blk
-	start := s.pos
-	end := s.target()
-	var flags uint8
+	axis(bitX, 'X', s.knownX, &start.X, &end.X)
+	axis(bitY, 'Y', s.knownY, &start.Y, &end.Y)
+	axis(bitZ, 'Z', s.knownZ, &start.Z, &end.Z)
 	if !s.knownX || !s.knownY {
 		flags |= MoveFromUnknownXY
 	}
@@ -248,58 +252,55 @@ func (s *simulator) move() {
 			flags |= MoveXYBeforeZ
 		}
 	}
-	if s.motion >= 20 && (!s.knownX || !s.knownY) {
-		s.problem(RuleArcInvalid, "arc from an unknown position: give X and Y with a straight move first")
-		return
-	}
-	// An axis first given on this line: an absolute move starts there,
-	// and so did every earlier segment.
-	s.learn(&s.knownX, bitX, &start.X, end.X, func(p *toolpath.Point) *float64 { return &p.X })
-	s.learn(&s.knownY, bitY, &start.Y, end.Y, func(p *toolpath.Point) *float64 { return &p.Y })
-	s.learn(&s.knownZ, bitZ, &start.Z, end.Z, func(p *toolpath.Point) *float64 { return &p.Z })
-	var seg toolpath.Segment
-	switch s.motion {
+	switch motion {
 	case 0, 10:
-		seg = toolpath.Segment{Kind: toolpath.Line, Motion: toolpath.Travel, Start: start, End: end}
-		if s.motion == 10 {
+		seg := toolpath.Segment{Kind: toolpath.Line, Motion: toolpath.Travel, Start: start, End: end}
+		if motion == 10 {
 			seg.Motion = toolpath.Cut
 		}
-	case 20, 30:
-		var ok bool
-		if seg, ok = s.arc(start, end); !ok {
-			return
-		}
-		if b.has&bitR != 0 {
-			flags |= MoveRadiusForm
-		}
+		return seg, flags, true
 	}
-	s.pos = end
-	s.emit(seg, uint8(s.motion/10), flags)
+	if !s.knownX || !s.knownY {
+		s.problem(RuleArcInvalid, "arc from an unknown position: give X and Y with a straight move first")
+		return toolpath.Segment{}, 0, false
+	}
+	if b.has&bitR != 0 {
+		flags |= MoveRadiusForm
+	}
+	seg, ok := s.arc(start, end, motion == 20)
+	return seg, flags, ok
 }
 
-// learn marks an axis known the first time the line gives it. In absolute
-// mode the move, and every segment before it, is taken to start at the
-// given value; in incremental mode it counts from 0.
-func (s *simulator) learn(known *bool, bit uint32, start *float64, v float64, axis func(*toolpath.Point) *float64) {
-	if *known || s.blk.has&bit == 0 {
-		return
+// commit makes a planned move: axes given for the first time become known
+// (and every earlier segment, which started nowhere known, is put where
+// the axis first is), the position moves, the segment is recorded.
+func (s *simulator) commit(seg toolpath.Segment, flags, code uint8) {
+	b := &s.blk
+	learn := func(known *bool, bit uint32, v float64, axis func(*toolpath.Point) *float64) {
+		if *known || b.has&bit == 0 {
+			return
+		}
+		*known = true
+		if s.incremental {
+			return // counted from 0, where the earlier segments are
+		}
+		for i := range s.p.Path {
+			e := &s.p.Path[i]
+			*axis(&e.Start), *axis(&e.End) = v, v
+		}
 	}
-	*known = true
-	if s.incremental {
-		return
-	}
-	*start = v
-	for i := range s.p.Path {
-		seg := &s.p.Path[i]
-		*axis(&seg.Start), *axis(&seg.End) = v, v
-	}
+	learn(&s.knownX, bitX, seg.Start.X, func(p *toolpath.Point) *float64 { return &p.X })
+	learn(&s.knownY, bitY, seg.Start.Y, func(p *toolpath.Point) *float64 { return &p.Y })
+	learn(&s.knownZ, bitZ, seg.Start.Z, func(p *toolpath.Point) *float64 { return &p.Z })
+	s.pos = seg.End
+	s.emit(seg, code, flags)
 }
 
 // emit appends a segment and its move record.
 func (s *simulator) emit(seg toolpath.Segment, code, flags uint8) {
 	s.p.Path = append(s.p.Path, seg)
 	s.p.Moves = append(s.p.Moves, Move{
-		Line: s.line, Code: code, Flags: flags, Units: s.lineUnits(),
+		Line: s.line, Code: code, Flags: flags, Units: s.written,
 		Spindle: s.spindle, Feed: s.feed, Speed: s.speed, Tool: s.tool,
 	})
 }

@@ -26,9 +26,8 @@ func arcTolerance(written, path Units) float64 {
 
 // arc builds the G2 or G3 segment from start to end, recording an
 // arc-invalid problem and returning false when the words make no arc.
-func (s *simulator) arc(start, end toolpath.Point) (toolpath.Segment, bool) {
+func (s *simulator) arc(start, end toolpath.Point, cw bool) (toolpath.Segment, bool) {
 	b := &s.blk
-	cw := s.motion == 20
 	seg := toolpath.Segment{Kind: toolpath.Arc, Motion: toolpath.Cut, Start: start, End: end, Clockwise: cw}
 	hasIJ := b.has&(bitI|bitJ) != 0
 	hasR := b.has&bitR != 0
@@ -65,7 +64,7 @@ func (s *simulator) arc(start, end toolpath.Point) (toolpath.Segment, bool) {
 	half := d / 2
 	h2 := (math.Abs(r) - half) * (math.Abs(r) + half)
 	if h2 < 0 {
-		if half-math.Abs(r) > arcTolerance(s.lineUnits(), s.p.Units) {
+		if half-math.Abs(r) > arcTolerance(s.written, s.p.Units) {
 			s.problem(RuleArcInvalid, "R "+msgNum(math.Abs(r))+" is less than half the chord "+msgNum(half)+": no circle of that radius joins the two points")
 			return seg, false
 		}
