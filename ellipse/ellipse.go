@@ -83,12 +83,10 @@ func New(center Point, semiX, semiY, rotation float64) (Ellipse, error) {
 // counter-clockwise by rotation radians. Field names in errors are
 // "width" and "height".
 func FromSize(width, height float64, center Point, rotation float64) (Ellipse, error) {
-	if err := checkSize("width", width/2); err != nil {
-		err.(*Error).Value = width
+	if err := checkFull("width", width); err != nil {
 		return Ellipse{}, err
 	}
-	if err := checkSize("height", height/2); err != nil {
-		err.(*Error).Value = height
+	if err := checkFull("height", height); err != nil {
 		return Ellipse{}, err
 	}
 	e, err := New(center, width/2, height/2, rotation)
@@ -118,8 +116,7 @@ func FromFoci(f1, f2 Point, majorLength float64) (Ellipse, error) {
 			return Ellipse{}, err
 		}
 	}
-	if err := checkSize("major axis", majorLength/2); err != nil {
-		err.(*Error).Value = majorLength
+	if err := checkFull("major axis", majorLength); err != nil {
 		return Ellipse{}, err
 	}
 	dx, dy := f2.X-f1.X, f2.Y-f1.Y
@@ -162,6 +159,17 @@ func checkFinite(field string, v float64) error {
 		return &Error{Field: field, Value: v, Err: ErrNotFinite}
 	}
 	return nil
+}
+
+// checkFull checks a full length (twice a semi-axis) and reports the
+// value and limits as full lengths.
+func checkFull(field string, v float64) error {
+	err := checkSize(field, v/2)
+	if ee, ok := err.(*Error); ok {
+		ee.Value = v
+		ee.Limit *= 2
+	}
+	return err
 }
 
 func checkSize(field string, v float64) error {
