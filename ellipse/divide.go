@@ -24,6 +24,7 @@ type Divider struct {
 	prev   float64 // reduced parameter of the previous point (internal frame)
 	prevK  float64 // its half-turn count
 	length float64
+	evals  int // length evaluations so far, for tests of the cost
 }
 
 // NewDivider returns a Divider for n points on c. n must be at least 1.
@@ -81,7 +82,8 @@ func (d *Divider) Next() (DivisionPoint, bool) {
 	if !(guess > -math.Pi/2 && guess < math.Pi/2) {
 		guess = e.guess(res/d.qd, d.dn)
 	}
-	r, _ := e.solveReduced(res, d.dn, guess)
+	r, n := e.solveReduced(res, d.dn, guess)
+	d.evals += n
 	d.prev, d.prevK = r, hk
 	t := e.fromFrame(hk, r)
 	return DivisionPoint{Point: d.c.PointAt(t), T: t, S: w * e.a}, true

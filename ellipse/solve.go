@@ -69,10 +69,10 @@ func (e Ellipse) solveReduced(w, dn, r0 float64) (float64, int) {
 		f := e.lengthX(s, rf, rd)
 		v := math.Sqrt(y) // scaled speed √(sin²r + k²cos²r)
 		dv := float64(e.m1*s) * c / v
-		fp, fpp := v, dv
+		fp, fpp, q := v, dv, 0.0
 		if dn != 0 {
 			f += dn * e.turnX(s, c)
-			q := dn * e.k / (float64(v*v) * v) // d·κ: the parallel curve runs 1 + q times as fast
+			q = dn * e.k / (float64(v*v) * v) // d·κ: the parallel curve runs 1 + q times as fast
 			fp = v + float64(q*v)
 			fpp = dv * (1 - 2*q)
 		}
@@ -85,21 +85,73 @@ func (e Ellipse) solveReduced(w, dn, r0 float64) (float64, int) {
 		} else {
 			hi = r
 		}
-		den := float64(2*fp*fp) - float64(g*fpp)
-		step := -2 * g * fp / den
-		next := r + step
-		if !(den > 0 && next > lo && next < hi) {
-			next = lo + (hi-lo)/2
-		} else if rho, h := math.Min(v, fp), math.Abs(step); h <= cubicStop*rho && h <= 1e-3*math.Abs(next) &&
-			float64(h*h)*h <= 0x1p-54*math.Abs(next)*float64(rho*rho) {
-			return next, i
+		var next float64
+		var done bool
+		if q > 1 {
+			next, done = e.turnStep(r, s, c, v, dv, fp, fpp, g, lo, hi)
+		} else {
+			next, done = paramStep(r, v, fp, fpp, g, lo, hi)
 		}
-		if next == r || hi-lo <= 0x1p-52*math.Max(1, math.Abs(r)) {
+		if done || next == r || hi-lo <= 0x1p-52*math.Max(1, math.Abs(r)) {
 			return next, i
 		}
 		r = next
 	}
 	return r, 100
+}
+
+// paramStep returns the Halley step from r for the residual g, or a
+// bisection of [lo, hi] when that step leaves the bracket, and whether
+// the iteration may stop (see cubicStop).
+func paramStep(r, v, fp, fpp, g, lo, hi float64) (next float64, done bool) {
+	den := float64(2*fp*fp) - float64(g*fpp)
+	step := -2 * g * fp / den
+	next = r + step
+	if den > 0 && next == r {
+		return r, true // the step is below half an ulp: converged
+	}
+	if !(den > 0 && next > lo && next < hi) {
+		return lo + (hi-lo)/2, false
+	}
+	return next, stopCubic(math.Abs(step), next, math.Min(v, fp))
+}
+
+// stopCubic reports whether a Halley step h to next, on the length scale
+// rho, leaves an error below rounding (see cubicStop).
+func stopCubic(h, next, rho float64) bool {
+	return h <= cubicStop*rho && h <= 1e-3*math.Abs(next) &&
+		float64(h*h)*h <= 0x1p-54*math.Abs(next)*float64(rho*rho)
+}
+
+// turnStep is the Halley step taken in the angle ν of the normal instead
+// of in r, for an outward parallel curve where the offset d exceeds the
+// radius of curvature (q = dκ > 1): there most of the length is d·ν, and
+// on the end caps of a flat ellipse, where ν turns through almost π over
+// a parameter range of order b/a, the length is a steep step in r but
+// nearly linear in ν. With ν' = dν/dr = k/v², the length as a function of
+// ν has derivatives F' = f'/ν' (the radius of curvature plus d) and
+// F'' = (f'' + 2f'v'/v)/ν'², and ν's own length scale is k/v (the dual of
+// the speed v). A step that leaves the bracket is replaced by bisection
+// in ν.
+func (e Ellipse) turnStep(r, s, c, v, dv, fp, fpp, g, lo, hi float64) (next float64, done bool) {
+	nup := e.k / float64(v*v)
+	Fp := fp / nup
+	Fpp := (fpp + float64(2*fp)*dv/v) / float64(nup*nup)
+	den := float64(2*Fp*Fp) - float64(g*Fpp)
+	h := -2 * g * Fp / den
+	nu := e.turnX(s, c)
+	nn := nu + h
+	if den > 0 && nn > -math.Pi/2 && nn < math.Pi/2 {
+		sn, cn := math.Sincos(nn)
+		next = math.Atan2(e.k*sn, cn)
+		if next == r {
+			return r, true
+		}
+		if next > lo && next < hi {
+			return next, stopCubic(math.Abs(h), nn, e.k/v)
+		}
+	}
+	return paramStep(r, v, fp, fpp, g, lo, hi)
 }
 
 // polishNearStart refines a parameter t found in the internal frame when
