@@ -48,7 +48,7 @@ func TestConstructorsRejectBadInput(t *testing.T) {
 		{"FromFoci NaN focus", func() error { _, err := FromFoci(Point{0, nan}, o, 5); return err }, "focus 1 y", nan, ErrNotFinite, 0},
 		{"FromFoci Inf focus", func() error { _, err := FromFoci(o, Point{inf, 0}, 5); return err }, "focus 2 x", inf, ErrNotFinite, 0},
 		{"FromFoci NaN length", func() error { _, err := FromFoci(o, Point{1, 0}, nan); return err }, "major axis", nan, ErrNotFinite, 0},
-		{"FromFoci flat", func() error { _, err := FromFoci(Point{-1, 0}, Point{1, 0}, 2 + 1e-20); return err }, "major axis", 2, ErrFociTooFar, 2},
+		{"FromFoci flat", func() error { _, err := FromFoci(Point{-1, 0}, Point{1, 0}, 2+1e-20); return err }, "major axis", 2, ErrFociTooFar, 2},
 		{"FromBoundingBox inverted", func() error { _, err := FromBoundingBox(5, 0, 1, 3); return err }, "width", -4, ErrNotPositive, 0},
 		{"FromBoundingBox empty", func() error { _, err := FromBoundingBox(0, 2, 4, 2); return err }, "height", 0, ErrNotPositive, 0},
 		{"FromBoundingBox NaN", func() error { _, err := FromBoundingBox(0, 0, nan, 1); return err }, "max x", nan, ErrNotFinite, 0},

@@ -128,11 +128,10 @@ func stopCubic(h, next, rho float64) bool {
 // radius of curvature (q = dκ > 1): there most of the length is d·ν, and
 // on the end caps of a flat ellipse, where ν turns through almost π over
 // a parameter range of order b/a, the length is a steep step in r but
-// nearly linear in ν. With ν' = dν/dr = k/v², the length as a function of
-// ν has derivatives F' = f'/ν' (the radius of curvature plus d) and
-// F'' = (f'' + 2f'v'/v)/ν'², and ν's own length scale is k/v (the dual of
-// the speed v). A step that leaves the bracket is replaced by bisection
-// in ν.
+// nearly linear in ν. With ν′ = dν/dr = k/v², the length as a function of
+// ν has the derivatives F′ = f′/ν′ (the radius of curvature plus d) and
+// F″ = (f″ + 2f′v′/v)/ν′², and ν's own length scale is k/v (the dual of
+// the speed v). A step that leaves the bracket falls back to paramStep.
 func (e Ellipse) turnStep(r, s, c, v, dv, fp, fpp, g, lo, hi float64) (next float64, done bool) {
 	nup := e.k / float64(v*v)
 	Fp := fp / nup
