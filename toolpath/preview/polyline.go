@@ -93,6 +93,34 @@ func (p *polyline) replay(dc *gg.Context) {
 	}
 }
 
+// replayChunks strokes the subpaths on dc with its current settings, at
+// most about chunk points per stroke. It suits opaque drawing only: where
+// two chunks meet or overlap, their coverage adds up.
+func (p *polyline) replayChunks(dc *gg.Context, chunk int) {
+	p.flush()
+	n := len(p.pts) / 2
+	count := 0
+	for k, s := range p.starts {
+		e := n
+		if k+1 < len(p.starts) {
+			e = p.starts[k+1]
+		}
+		dc.MoveTo(p.pts[2*s], p.pts[2*s+1])
+		if e-s == 1 {
+			dc.LineTo(p.pts[2*s]+0.01, p.pts[2*s+1])
+		}
+		for i := s + 1; i < e; i++ {
+			dc.LineTo(p.pts[2*i], p.pts[2*i+1])
+			if count++; count >= chunk && i+1 < e {
+				dc.Stroke()
+				dc.MoveTo(p.pts[2*i], p.pts[2*i+1])
+				count = 0
+			}
+		}
+	}
+	dc.Stroke()
+}
+
 // addSegment appends the plan view of a line or an arc to p.
 func addSegment(p *polyline, l *layout, s *toolpath.Segment) {
 	x0, y0 := l.px(s.Start.X, s.Start.Y)

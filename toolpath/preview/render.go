@@ -2,6 +2,7 @@ package preview
 
 import (
 	"image"
+	"image/draw"
 	"image/png"
 	"io"
 	"math"
@@ -104,7 +105,10 @@ func (pic *picture) strokeLayer(pl *polyline, w float64) {
 }
 
 // drawBand draws the tool's width along every cut as one faint band, so
-// that overlapping passes do not darken it.
+// that overlapping passes do not darken it: the band is stroked opaque
+// into a mask of its own, in chunks (the rasterizer slows down with the
+// number of cells on a row, and dense passes make many), and the mask is
+// laid on the picture once in the band colour.
 func (pic *picture) drawBand() {
 	if pic.opts.toolWidth <= 0 || !pic.an.hasCut {
 		return
@@ -114,9 +118,19 @@ func (pic *picture) drawBand() {
 		return
 	}
 	pl := pic.collect(func(i int) bool { return pic.an.classes[i].Cuts() })
-	pic.dc.SetColor(bandColor)
-	pic.strokeLayer(pl, w)
+	mask := gg.NewContext(pic.opts.width, pic.opts.height)
+	mask.SetColor(inkColor)
+	mask.SetLineWidth(w)
+	mask.SetLineCapRound()
+	mask.SetLineJoinRound()
+	pl.replayChunks(mask, bandChunk)
+	img := pic.dc.Image().(*image.RGBA)
+	draw.DrawMask(img, img.Bounds(), image.NewUniform(bandColor), image.Point{}, mask.Image(), image.Point{}, draw.Over)
 }
+
+// bandChunk is the number of polyline points stroked at a time for the
+// tool band.
+const bandChunk = 4096
 
 // drawCuts draws the cutting moves in depth shades, shallow first so that
 // the deepest pass lies on top.

@@ -196,3 +196,30 @@ func TestIntendedShapeIsAThinLine(t *testing.T) {
 
 // rgba converts a colour without alpha to color.RGBA.
 func rgba(c color.NRGBA) color.RGBA { return color.RGBA{c.R, c.G, c.B, 255} }
+
+func TestBandDoesNotDarkenWherePassesOverlap(t *testing.T) {
+	// A circle of 12000 lines (more than one stroke chunk) cut once, and
+	// three times over: the band beside the cut must look the same.
+	circle := func(passes int) toolpath.Path {
+		b := &builder{pos: toolpath.Point{X: 100, Z: 5}}
+		for k := 0; k < passes; k++ {
+			z := -2 * float64(k+1)
+			b.feed(100, 0, z)
+			for i := 1; i <= 12000; i++ {
+				a := 2 * math.Pi * float64(i) / 12000
+				b.feed(100*math.Cos(a), 100*math.Sin(a), z)
+			}
+		}
+		return b.p
+	}
+	one, l1 := drawn(t, circle(1), Options{ToolWidth: 10})
+	three, l3 := drawn(t, circle(3), Options{ToolWidth: 10})
+	for _, deg := range []float64{10, 100, 200, 300} {
+		a := deg * math.Pi / 180
+		x, y := 103.5*math.Cos(a), 103.5*math.Sin(a)
+		c1, c3 := rgbAt(one, l1, x, y), rgbAt(three, l3, x, y)
+		if isWhite(c1) || math.Abs(luma(c1)-luma(c3)) > 2 {
+			t.Errorf("band at %v°: one pass %v, three passes %v, want the same faint colour", deg, c1, c3)
+		}
+	}
+}
