@@ -32,7 +32,9 @@
 // Moves are turned into pixel polylines first: a move shorter than a pixel
 // is merged into the next, and an arc becomes a number of chords that grows
 // with the square root of its radius in pixels (chord error at most a
-// quarter pixel). A program of a million moves draws in about a second.
+// quarter pixel); the tool band is stroked opaque into a mask and laid on
+// once. A program of a million moves draws in one to two seconds (see the
+// benchmarks).
 //
 // The main entry points are [Render] and [WritePNG].
 package preview

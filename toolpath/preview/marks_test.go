@@ -203,3 +203,22 @@ func TestArrowsFollowTheCutNotItsWiggles(t *testing.T) {
 		t.Errorf("%d arrows, want 5", len(marks))
 	}
 }
+
+// direction returns the unit direction of travel of s at fraction u, in
+// path coordinates.
+func direction(s *toolpath.Segment, u float64) (float64, float64) {
+	if s.Kind == toolpath.Arc {
+		sw := s.Sweep()
+		a := math.Atan2(s.Start.Y-s.CenterY, s.Start.X-s.CenterX) + u*sw
+		if sw > 0 {
+			return -math.Sin(a), math.Cos(a)
+		}
+		return math.Sin(a), -math.Cos(a)
+	}
+	dx, dy := s.End.X-s.Start.X, s.End.Y-s.Start.Y
+	d := math.Hypot(dx, dy)
+	if d == 0 {
+		return 1, 0
+	}
+	return dx / d, dy / d
+}
