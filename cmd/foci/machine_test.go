@@ -171,3 +171,42 @@ func TestProgramDecimalsCoverTheToleranceAndTheWriterMinimum(t *testing.T) {
 		}
 	}
 }
+
+// Pictures and the report are written with the program; when one of them
+// cannot be written, the program is not written either.
+func TestOperationsWritePicturesAndReportsBeforeTheProgram(t *testing.T) {
+	for _, cmd := range [][]string{
+		{"path", "-size", "120x80"},
+		{"profile", "-machine", "router", "-size", "120x80", "-tool", "6", "-depth", "3", "-tabs", "2"},
+		{"drill", "-machine", "laser", "-size", "120x80", "-count", "5", "-power", "100"},
+		{"dash", "-machine", "plotter", "-size", "120x80", "-dash", "8,4"},
+	} {
+		dir := t.TempDir()
+		prog, png, svg := filepath.Join(dir, "p.gcode"), filepath.Join(dir, "p.png"), filepath.Join(dir, "p.svg")
+		r := runFoci(t, append(cmd, "-o", prog, "-png", png, "-svg", svg)...)
+		if r.code != 0 {
+			t.Fatalf("%v: exit %d: %s", cmd, r.code, r.stderr)
+		}
+		if b, _ := os.ReadFile(png); !bytes.HasPrefix(b, []byte("\x89PNG")) {
+			t.Errorf("%v: %s is not a PNG", cmd, png)
+		}
+		if b, _ := os.ReadFile(svg); !bytes.Contains(b, []byte("<svg")) {
+			t.Errorf("%v: %s is not an SVG", cmd, svg)
+		}
+		missing := filepath.Join(dir, "no such dir")
+		bad := [][]string{{"-png", filepath.Join(missing, "p.png")}, {"-svg", filepath.Join(missing, "p.svg")}}
+		if cmd[0] != "path" {
+			bad = append(bad, []string{"-report", filepath.Join(missing, "r.json")})
+		}
+		for _, b := range bad {
+			fresh := filepath.Join(dir, "fresh.gcode")
+			r := runFoci(t, append(append([]string{}, cmd...), append(b, "-o", fresh)...)...)
+			if r.code != 2 {
+				t.Errorf("%v %v: exit %d, want 2", cmd, b, r.code)
+			}
+			if _, err := os.Stat(fresh); err == nil {
+				t.Errorf("%v %v: the program was written although %s could not be", cmd, b, b[1])
+			}
+		}
+	}
+}

@@ -1,7 +1,10 @@
 package main
 
 import (
+	"errors"
+	"flag"
 	"fmt"
+	"strconv"
 
 	"github.com/focitools/foci/ellipse"
 	"github.com/focitools/foci/gcodeout"
@@ -121,7 +124,10 @@ func runPath(e *env, args []string) error {
 		if err := pics.write(e, path, pictureOptions{title: "foci path: " + shapeText(&shape, *offset), units: u, intended: []ellipse.Parallel{curve}}); err != nil {
 			return err
 		}
-		err = writeProgram(e, *out, wr, path)
+		var prog []byte
+		if prog, err = renderProgram(wr, path); err == nil {
+			err = writeBytes(e, *out, prog)
+		}
 	} else {
 		err = streamProgram(e, *out, wr, func(wr *gcodeout.Writer) error { return each(wr.WriteSegment) })
 	}
@@ -151,4 +157,90 @@ func zoneText(z toolpath.Zone, tol float64, units string) string {
 		return fmt.Sprintf("%s %s inside", fmtNum(tol), units)
 	}
 	return fmt.Sprintf("band +-%s %s", fmtNum(tol), units)
+}
+
+// curveFlags are the approximation flags: -tol and -geometry, and -zone
+// for the commands that let the user choose it.
+type curveFlags struct {
+	tol      float64
+	geometry string
+	zone     string
+	withZone bool
+}
+
+// register adds -tol, -geometry and, when withZone, -zone to fs.
+func (c *curveFlags) register(fs *flag.FlagSet, withZone bool) {
+	fs.Float64Var(&c.tol, "tol", 0.05, "tolerance `T`: how far the path may stray from the curve (0.002 with -units inch)")
+	fs.StringVar(&c.geometry, "geometry", "arcs", "segment `kind`: lines (G1) or arcs (G2/G3)")
+	c.withZone = withZone
+	if withZone {
+		fs.StringVar(&c.zone, "zone", "band", "`zone` the path keeps to: band (either side of the curve), outside or inside it")
+	}
+}
+
+// resolve applies the inch default and checks the values.
+func (c *curveFlags) resolve(set map[string]bool, u Units) (toolpath.Geometry, toolpath.Zone, error) {
+	inchDefault(set, "tol", u, &c.tol, 0.002)
+	if err := positive("tol", c.tol); err != nil {
+		return 0, 0, err
+	}
+	g, ok := toolpath.ParseGeometry(c.geometry)
+	if !ok {
+		return 0, 0, badFlag("geometry", "%q is not a geometry; use lines or arcs", c.geometry)
+	}
+	z := toolpath.Band
+	if c.withZone {
+		if z, ok = toolpath.ParseZone(c.zone); !ok {
+			return 0, 0, badFlag("zone", "%q is not a zone; use band, outside or inside", c.zone)
+		}
+	}
+	return g, z, nil
+}
+
+// programDecimals returns the coordinate decimals of a program made to
+// tolerance tol: the approximation's choice (rounding at most 1% of the
+// tolerance, see toolpath.DecimalsFor), raised to the writer's minimum for
+// the units so that arc radii stay within the RS274NGC limit, and capped
+// at the writer's maximum. A tolerance too fine for the cap is then
+// refused by the approximation as too fine for the decimals.
+func programDecimals(tol float64, u Units) int {
+	d := toolpath.DecimalsFor(tol)
+	d = max(d, gcodeout.MinDecimals(writerUnits(u)))
+	return min(d, gcodeout.MaxDecimals)
+}
+
+// specError turns an approximation error into a usage error naming the
+// flag behind the field: -tol for the tolerance and the decimals it needs;
+// for a zone that reaches inward past the fold of the parallel curves,
+// offsetFlag when the curve is offset and -tol when it is not.
+func specError(err error, offsetFlag string, tol float64) error {
+	var se *toolpath.SpecError
+	if !errors.As(err, &se) {
+		return err
+	}
+	switch {
+	case errors.Is(err, toolpath.ErrTooFine):
+		return badFlag("tol", "%s is too fine: the curve would need about %.3g segments, more than the limit of %d; use a larger tolerance",
+			fmtNum(se.Value), se.Limit, toolpath.MaxSegments)
+	case errors.Is(err, toolpath.ErrDecimals):
+		return badFlag("tol", "%s is too fine for the %d coordinate decimals a program can carry: rounding would take up the whole tolerance; use a tolerance of at least about %s",
+			fmtNum(tol), gcodeout.MaxDecimals, strconv.FormatFloat(40*toolpath.RoundingAllowance(gcodeout.MaxDecimals), 'g', 2, 64))
+	case errors.Is(err, toolpath.ErrTolerance):
+		return badFlag("tol", "%s must be a finite number greater than zero", fmtNum(se.Value))
+	case errors.Is(err, toolpath.ErrOffset):
+		// SpecError.Limit is the furthest inward offset the zone allows:
+		// minus (b²/a less the tolerance).
+		fold := tol - se.Limit
+		if se.Value == 0 {
+			return badFlag("tol", "%s is too wide for this ellipse: the zone reaches inward past the minimum radius of curvature b²/a = %s of this ellipse, where the inward parallel curves fold; use a tolerance below %s or the outside zone",
+				fmtNum(tol), fmtNum(fold), fmtNum(fold))
+		}
+		if se.Limit >= 0 {
+			return badFlag(offsetFlag, "%s cannot be followed with -tol %s: the zone alone reaches inward past the minimum radius of curvature b²/a = %s, where the inward parallel curves fold; use a tolerance below %s or the outside zone",
+				fmtNum(se.Value), fmtNum(tol), fmtNum(fold), fmtNum(fold))
+		}
+		return badFlag(offsetFlag, "%s is too far inward for the tolerance: the zone reaches inward past the minimum radius of curvature b²/a = %s, where the inward parallel curves fold; the inward offset must be less than about %s (b²/a less the tolerance)",
+			fmtNum(se.Value), fmtNum(fold), fmtNum(-se.Limit))
+	}
+	return fmt.Errorf("%v", err)
 }
