@@ -169,17 +169,28 @@ func joinAt(dst Path, i int) Path {
 func slope(segs Path, za, zb float64) {
 	total := 0.0
 	for i := range segs {
-		total += segs[i].Length()
+		total += lengthXY(&segs[i])
 	}
 	run := 0.0
 	for i := range segs {
 		segs[i].Start.Z = za + (zb-za)*run/total
-		run += segs[i].Length()
+		run += lengthXY(&segs[i])
 		segs[i].End.Z = za + (zb-za)*run/total
 	}
 	if n := len(segs); n > 0 {
 		segs[0].Start.Z, segs[n-1].End.Z = za, zb
 	}
+}
+
+// lengthXY returns the length of a segment in the XY plane.
+func lengthXY(s *Segment) float64 {
+	switch s.Kind {
+	case Line:
+		return math.Hypot(s.End.X-s.Start.X, s.End.Y-s.Start.Y)
+	case Arc:
+		return math.Abs(s.Sweep()) * s.Radius
+	}
+	return 0
 }
 
 // moveZ appends a straight Cut move in Z from the end of dst to z: down
