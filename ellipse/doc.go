@@ -24,11 +24,17 @@
 // Legendre's incomplete elliptic integral of the second kind: with the
 // major semi-axis a and m = 1 − b²/a², s(0, t) = a·E(t | m) when the major
 // axis is the own y axis and a·(E(t − π/2 | m) + E(m)) when it is the own x
-// axis. E is computed from Carlson's symmetric integrals R_F and R_D by the
-// duplication algorithm (Carlson 1995; DLMF 19.36) with range reduction for
-// any argument (DLMF 19.25.7 and E(φ + nπ|m) = E(φ|m) + 2n·E(m)).
-// [Ellipse.ArcLength] and [Ellipse.ParamAtArcLength] are exact to a few
-// units in the last place and allocate nothing.
+// axis. Internally every ellipse is measured with its major axis along x,
+// where E takes a form whose two Carlson terms are both positive, so no
+// axis ratio loses digits; R_F and R_D come from one duplication loop
+// (Carlson 1995; DLMF 19.36) with range reduction for any argument (DLMF
+// 19.25.7 and E(φ + nπ|m) = E(φ|m) + 2n·E(m)). Arcs short against the
+// local length scale are integrated directly by Gauss–Legendre
+// quadrature, so [Ellipse.ArcLength] is within a few ulps of the arc's own
+// length, however short and however many turns from t = 0;
+// [Ellipse.ParamAtArcLength] inverts it by Halley's method in a bracket,
+// usually in two or three evaluations. Neither allocates. [LegendreE],
+// [CarlsonRF] and [CarlsonRD] expose the special functions themselves.
 //
 // # Parallel curves
 //
@@ -43,5 +49,7 @@
 // [Ellipse.SignedDistance] follows Eberly, "Distance from a Point to an
 // Ellipse, an Ellipsoid, or a Hyperellipsoid" (Geometric Tools): the foot
 // point is the root of a monotone function in one variable, found here by
-// Newton steps kept inside a bisection bracket.
+// Newton steps kept inside a bisection bracket, in a variable that keeps
+// its digits for points near the centre and near the major axis. It is
+// exact to about 1e-15 of the larger of |d| and the semi-major axis.
 package ellipse
