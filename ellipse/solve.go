@@ -33,10 +33,9 @@ func (e Ellipse) guess(u, dn float64) float64 {
 // conditions matter: h³/ρ² must be below half an ulp of the result, and
 // h at most 1e-3 of it, because a step computed at r carries the rounding
 // of the length there, an ulp of r, into the next iterate. The scaled
-// speed itself serves as ρ: near the ends of the major
-// axis of a flat ellipse both shrink to b/a, and elsewhere ρ is at least
-// the speed. For a parallel curve the smaller of that and its own speed is
-// used.
+// speed itself serves as ρ: near the ends of the major axis of a flat
+// ellipse both shrink to b/a, and elsewhere ρ is at least the speed. For a
+// parallel curve the smaller of that and its own speed is used.
 const cubicStop = 1e-6
 
 // solveReduced returns r ∈ [−π/2, π/2] with L_d(r) = w in the internal
