@@ -79,7 +79,9 @@ func (d *Divider) Next() (DivisionPoint, bool) {
 	}
 	h := d.step / fp
 	guess := d.prev + (d.prevK-hk)*math.Pi + (h - float64(fpp*h)*h/(2*fp))
-	if !(guess > -math.Pi/2 && guess < math.Pi/2) {
+	// Far from the previous point the prediction is poorer than the
+	// global starting guess.
+	if !(guess > -math.Pi/2 && guess < math.Pi/2) || math.Abs(h) > 0.02 {
 		guess = e.guess(res/d.qd, d.dn)
 	}
 	r, n := e.solveReduced(res, d.dn, guess)

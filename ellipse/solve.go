@@ -10,12 +10,31 @@ import "math"
 // blends, by the axis ratio k, the circle (r ∝ u) and the flat limit
 // (speed |sin r|, so u = 1 − cos r). A parallel curve adds dn·ν(r), ν the
 // turn of the normal, whose inverse is exact: r = atan2(k·sin ν, cos ν).
-// The two are blended by the share of the turn term in the quarter length.
+// The two are blended by the share of the turn term in the quarter
+// length, except for the outward parallels of flat ellipses, which are
+// split into an end cap and a flat side instead.
 func (e Ellipse) guess(u, dn float64) float64 {
 	u = math.Max(-1, math.Min(1, u))
 	circle := u * (math.Pi / 2)
 	flat := math.Copysign(math.Acos(1-math.Abs(u)), u)
 	r := e.k*circle + (1-e.k)*flat
+	if dn > e.k2 && e.k < 0.2 {
+		// A flat ellipse's outward parallel at more than the smallest
+		// radius of curvature b²/a is nearly a stadium: from the end of
+		// the major axis (r = 0) the first d·π/2 of the quarter is an end
+		// cap, where the normal turns and the ellipse hardly advances,
+		// and the rest is the flat side, where the ellipse's own length
+		// accrues.
+		w := math.Abs(u) * (e.quarter + dn*(math.Pi/2))
+		if cap := dn * (math.Pi / 2); w < cap {
+			sn, cn := math.Sincos(w / dn)
+			r = math.Atan2(e.k*sn, cn)
+		} else {
+			v := math.Min(1, (w-cap)/e.quarter)
+			r = e.k*v*(math.Pi/2) + (1-e.k)*math.Acos(1-v)
+		}
+		return math.Copysign(r, u)
+	}
 	if dn != 0 {
 		alpha := dn * (math.Pi / 2) / (e.quarter + dn*(math.Pi/2))
 		sn, cn := math.Sincos(circle)
@@ -91,7 +110,7 @@ func (e Ellipse) solveReduced(w, dn, r0 float64) (float64, int) {
 		} else {
 			next, done = paramStep(r, v, fp, fpp, g, lo, hi)
 		}
-		if done || next == r || hi-lo <= 0x1p-52*math.Max(1, math.Abs(r)) {
+		if done || next == r || hi-lo <= 0x1p-52*math.Max(math.Abs(lo), math.Abs(hi)) {
 			return next, i
 		}
 		r = next
