@@ -69,8 +69,8 @@ const (
 // c·(h/2)²/2 = c·h²/8. A chord of length L across a curve of curvature κ
 // has c ≈ κ and a range κL²/8; an arc has c ≈ |κ − κₛ|.
 //
-// SegmentDeviation first samples f at five evenly spaced points with the
-// exact distance, bounding c from them: κ over the span of their feet
+// SegmentDeviation first samples f at five evenly spaced points, bounding
+// c from them: κ over the span of their feet
 // (curvature is extreme only at the ends of the axes, so the range of κ
 // over an interval of parameters is that at its ends and at any axis end
 // inside; a span over a quarter turn takes the whole curve's range), κₑ
@@ -86,10 +86,15 @@ const (
 // neighbours, keeping the better value; refinement never lowers the
 // accuracy.
 //
-// The dense samples find their feet by Newton's method on the foot
-// parameter started from the previous sample's foot, which converges in
-// two or three steps for neighbouring points; a step that fails to settle,
-// or a point deep inside or far outside, falls back to the exact method.
+// The start of the segment gets the exact distance ([ellipse.Ellipse.Nearest]);
+// every other sample finds its foot by Newton's method on the foot
+// parameter started from the feet of the samples before it, which
+// converges in two or three steps for neighbouring points. The nearest
+// point moves continuously along the segment while it stays off the
+// medial axis, so the tracked root is the nearest one; a step that fails to
+// settle or jumps, a value that breaks the 1-Lipschitz bound of the
+// distance, or a point deep inside or far outside falls back to the exact
+// method.
 //
 // Arcs are taken as toolpath does in [toolpath.Segment.At]: centre, start
 // angle, Radius and [toolpath.Segment.Sweep] (a Radius that is not positive
