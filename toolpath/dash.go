@@ -84,6 +84,11 @@ func Dash(dst Path, s DashSpec) (Path, error) {
 	if err != nil {
 		return dst, &OpError{Field: "Offset", Value: s.Offset, Err: err}
 	}
+	// The band reaches Tol inside the curve, which must not pass the fold
+	// of the inward parallel curves.
+	if lim := s.Ellipse.MinRadiusOfCurvature(); !(s.Tol-s.Offset < lim) {
+		return dst, opLimit("Offset", s.Offset, s.Tol-lim, ErrOffset)
+	}
 	n, on, _ := DashPattern(c.Length(), s.On, s.Off)
 	if n > MaxCount {
 		return dst, opLimit("Off", s.Off, c.Length()/MaxCount, ErrTooMany)

@@ -37,6 +37,9 @@ var (
 	// ErrLeadTooLarge reports a lead arc that does not fit in the waste
 	// of an inside cut.
 	ErrLeadTooLarge = errors.New("lead arc does not fit inside the cut; the limit is the largest lead radius")
+	// ErrLeadTooSmall reports a lead arc smaller than the tolerance,
+	// too small to be worth writing.
+	ErrLeadTooSmall = errors.New("lead arc smaller than the tolerance; the limit is the smallest lead radius")
 	// ErrRampTooLong reports a ramp longer than one turn of the
 	// tool-centre path.
 	ErrRampTooLong = errors.New("ramp longer than one turn of the path; the limit is the longest ramp (for an angle: the shallowest)")

@@ -59,7 +59,9 @@ type ProfileSpec struct {
 	// on the waste side. Zero chooses the default: the tool diameter for
 	// a router, ten kerfs for a laser, the pen width for a plotter (a
 	// plotter's SideOn, and every SideOn, has no lead by default),
-	// reduced to fit an inside cut. NoLead leaves the leads out.
+	// reduced to fit an inside cut; a default below Tol means no lead.
+	// An explicit radius must be at least Tol. NoLead leaves the leads
+	// out.
 	LeadRadius float64
 	NoLead     bool
 
@@ -101,9 +103,12 @@ type ProfileSpec struct {
 // the lead-out leaves from the end of the last loop. The path ends with a
 // Travel line straight up to SafeZ (Role [Retract]).
 //
-// Tabs are centred at the odd points of the division of the tool-centre
-// path into 2·Tabs equal arc lengths, counted from the entry point in the
-// direction of the cut (so the entry point lies midway between two tabs).
+// Tabs are centred at the odd points of the equal arc-length division of
+// the tool-centre curve into 2·Tabs parts ([ellipse.NewDivider], which
+// counts from the curve's parameter 0 counter-clockwise): they sit at
+// equal arc length, symmetric about the ellipse's own x axis (and about
+// both axes when Tabs is even), and the default entry point (Start 0)
+// lies midway between two of them.
 // Over each tab the tool-centre path is raised to Z = −Depth + TabHeight
 // along a stretch TabWidth + Tool long, so that the bridge left between
 // the two ends is TabWidth wide along the tool-centre path; at each end
@@ -204,6 +209,11 @@ func (s ProfileSpec) plan() (*profilePlan, error) {
 		}
 		p.radius, p.zone = -r, Inside
 	default:
+		// The band reaches Tol inside the ellipse, which must not pass
+		// the fold of its inward parallel curves.
+		if lim := e.MinRadiusOfCurvature(); !(s.Tol < lim) {
+			return nil, opLimit("Tol", s.Tol, lim, ErrOffset)
+		}
 		p.zone = Band
 	}
 	c, err := e.Parallel(p.radius)

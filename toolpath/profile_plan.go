@@ -131,9 +131,14 @@ func (p *profilePlan) planLead() error {
 		if explicit && !(r <= lim) {
 			return opLimit("LeadRadius", r, math.Max(lim, 0), ErrLeadTooLarge)
 		}
-		r = math.Min(r, 0.99*lim)
+		if !explicit {
+			r = math.Min(r, 0.99*lim)
+		}
 	}
-	if r > 0 {
+	if explicit && r < s.Tol {
+		return opLimit("LeadRadius", r, s.Tol, ErrLeadTooSmall)
+	}
+	if r >= s.Tol {
 		p.lead = r
 	}
 	return nil

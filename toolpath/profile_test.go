@@ -130,6 +130,8 @@ func TestProfileRefusals(t *testing.T) {
 		{"tabs overlapping", with(func(s *ProfileSpec) { s.Tabs, s.TabWidth, s.TabHeight = 100, 20, 3 }), "TabWidth", ErrTabsOverlap, e.Perimeter()/100 + 2*math.Pi*3/100 - 6},
 		{"tool too large inside", with(func(s *ProfileSpec) { s.Side, s.Tool = SideInside, 190 }), "Tool", ErrToolTooLarge, 2 * (140.0*140/210 - 0.05)},
 		{"lead too large inside", with(func(s *ProfileSpec) { s.Side, s.LeadRadius = SideInside, 100 }), "LeadRadius", ErrLeadTooLarge, 140.0*140/210 - 3 - 0.05},
+		{"lead below the tolerance", with(func(s *ProfileSpec) { s.LeadRadius = 0.01 }), "LeadRadius", ErrLeadTooSmall, 0.05},
+		{"band past the fold", ProfileSpec{Setup: Setup{Machine: Plotter, Tol: 8, PenUp: 3}, Ellipse: opsShapes(t)["slot"]}, "Tol", ErrOffset, 7.5},
 		{"lead and no lead", with(func(s *ProfileSpec) { s.LeadRadius, s.NoLead = 5, true }), "LeadRadius", ErrBoth, math.NaN()},
 		{"ramp angle and length", with(func(s *ProfileSpec) { s.RampAngle, s.RampLength = 0.1, 50 }), "RampLength", ErrBoth, math.NaN()},
 		{"ramp too long", with(func(s *ProfileSpec) { s.RampLength = 5000 }), "RampLength", ErrRampTooLong, e.Perimeter() + 2*math.Pi*3},

@@ -102,8 +102,23 @@ func (p *profilePlan) walk(dst Path, u1 float64, lv level) (Path, error) {
 		if lv.ramp > 0 && a < u0+lv.ramp {
 			role = Ramp
 		}
-		if in && math.Min(za, zb) < p.tabTop {
-			za, zb, role = math.Max(za, p.tabTop), math.Max(zb, p.tabTop), Tab
+		if in {
+			// Over a tab nothing goes below its top; a ramp end that
+			// rounds to within a hair of it (the crossing point) is
+			// taken as on it.
+			hair := 1e-12 * (1 + math.Abs(p.tabTop))
+			raise := func(z float64) float64 {
+				if z < p.tabTop+hair {
+					return p.tabTop
+				}
+				return z
+			}
+			if ra, rb := raise(za), raise(zb); ra != za || rb != zb {
+				za, zb = ra, rb
+				if za == p.tabTop && zb == p.tabTop {
+					role = Tab
+				}
+			}
 		}
 		var err error
 		if dst, err = p.piece(dst, a, b, za, zb, role); err != nil {
