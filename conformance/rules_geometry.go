@@ -36,7 +36,6 @@ type geometry struct {
 
 // contourMove is what the coverage and loop rules need of a contour move.
 type contourMove struct {
-	index   int     // into the path
 	t0, dt  float64 // foot parameter of the start and the turn to the end
 	low     float64 // lowest Z
 	flat    bool    // Start.Z == End.Z
@@ -63,6 +62,7 @@ func checkGeometry(p *Program, r Rules, c *collector, sum *Summary) {
 	g.tiny = 1e-9 * (el.SemiMajor() + math.Abs(sh.Curve.Offset()))
 	sum.Geometry = true
 	sum.DeviationLo, sum.DeviationHi = math.Inf(1), math.Inf(-1)
+	g.contours = make([]contourMove, 0, sum.Cut)
 	g.walk()
 	if sum.DeviationLo > sum.DeviationHi {
 		sum.DeviationLo, sum.DeviationHi = 0, 0
@@ -100,6 +100,9 @@ func (g *geometry) foot(x, y float64) (t, d float64) {
 	g.lastX, g.lastY, g.lastT, g.lastD, g.haveLast = x, y, t, d, true
 	return t, d
 }
+
+// outside reports whether a deviation breaks the zone.
+func (g *geometry) outside(d float64) bool { return d < g.zlo-g.tiny || d > g.zhi+g.tiny || d != d }
 
 // away reports whether a deviation lies farther than tol outside the zone.
 func (g *geometry) away(d float64) bool { return d < g.zlo-g.tol || d > g.zhi+g.tol }
@@ -158,10 +161,12 @@ func (g *geometry) walk() {
 		}
 		rough := false
 		if !measured {
-			if l := s.Length(); (d0+d1-l)/2 > g.zhi+g.tol || (d0+d1+l)/2 < g.zlo-g.tol {
-				// Wholly outside the zone, by the same bound: a few
-				// samples say how far, without the dense measure that
-				// a move far from the curve makes costly.
+			if g.outside(d0) || g.outside(d1) {
+				// An end already breaks the zone: the move fails
+				// whatever lies between, and nine samples say by how
+				// much (within 2% of the range for a move that bends
+				// away from the curve like a parabola) without the
+				// dense measure, which is costly far from the curve.
 				lo, hi = g.roughDeviation(s, d0, d1)
 				rough = true
 			} else {
@@ -177,7 +182,7 @@ func (g *geometry) walk() {
 		if lo < g.zlo-g.tiny || hi > g.zhi+g.tiny || lo != lo || hi != hi {
 			g.deviation(i, lo, hi, rough)
 		}
-		cm := contourMove{index: i, t0: t0, dt: dt, runID: run, lineNum: p.Moves[i].Line,
+		cm := contourMove{t0: t0, dt: dt, runID: run, lineNum: p.Moves[i].Line,
 			low: math.Min(s.Start.Z, s.End.Z), flat: math.Abs(s.Start.Z-s.End.Z) <= levelEps}
 		if g.r.Machine == Laser {
 			cm.low, cm.flat = 0, true // the beam cuts through: one level
@@ -188,7 +193,7 @@ func (g *geometry) walk() {
 }
 
 // roughDeviation samples the deviation of a move at its ends and seven
-// points between.
+// points between: a lower bound on its range.
 func (g *geometry) roughDeviation(s *toolpath.Segment, d0, d1 float64) (lo, hi float64) {
 	lo, hi = math.Min(d0, d1), math.Max(d0, d1)
 	for k := 1; k < 8; k++ {
@@ -211,7 +216,7 @@ func (g *geometry) deviation(i int, lo, hi float64, rough bool) {
 	u := unitName(g.p)
 	verb := "the move deviates from "
 	if rough {
-		verb = "the move lies wholly outside the zone, deviating from about "
+		verb = "the move deviates from about "
 	}
 	msg := verb + fmtDev(lo) + " to " + fmtDev(hi) + u + " from the curve; the " +
 		g.r.Shape.Zone.String() + " zone allows " + fmtDev(g.zlo) + " to " + fmtDev(g.zhi) + u
