@@ -79,26 +79,30 @@ func footParam(e ellipse.Ellipse, p Point) float64 {
 type paramSpan struct{ a, b float64 }
 
 // footSpans appends the parameter intervals the segments sweep over, as
-// seen from the ellipse (each segment's ends mapped to their feet; a
-// segment is far shorter than half a turn).
+// seen from the ellipse: each segment is cut into sixteen pieces (so that
+// none turns by half a turn or more, even a half-circle arc) and each
+// piece's ends are mapped to their feet.
 func footSpans(dst []paramSpan, e ellipse.Ellipse, segs []Segment) []paramSpan {
+	const pieces = 16
 	for _, s := range segs {
-		ta := footParam(e, s.Start)
-		tb := footParam(e, s.End)
-		d := math.Remainder(tb-ta, 2*math.Pi)
-		lo, hi := ta, ta+d
-		if d < 0 {
-			lo, hi = ta+d, ta
-		}
-		lo = math.Mod(lo, 2*math.Pi)
-		if lo < 0 {
-			lo += 2 * math.Pi
-		}
-		hi = lo + math.Abs(d)
-		if hi > 2*math.Pi {
-			dst = append(dst, paramSpan{lo, 2 * math.Pi}, paramSpan{0, hi - 2*math.Pi})
-		} else {
-			dst = append(dst, paramSpan{lo, hi})
+		for k := 0; k < pieces; k++ {
+			ta := footParam(e, s.At(float64(k)/pieces))
+			tb := footParam(e, s.At(float64(k+1)/pieces))
+			d := math.Remainder(tb-ta, 2*math.Pi)
+			lo := ta
+			if d < 0 {
+				lo = ta + d
+			}
+			lo = math.Mod(lo, 2*math.Pi)
+			if lo < 0 {
+				lo += 2 * math.Pi
+			}
+			hi := lo + math.Abs(d)
+			if hi > 2*math.Pi {
+				dst = append(dst, paramSpan{lo, 2 * math.Pi}, paramSpan{0, hi - 2*math.Pi})
+			} else {
+				dst = append(dst, paramSpan{lo, hi})
+			}
 		}
 	}
 	return dst
@@ -159,10 +163,19 @@ func overlap(x, y []paramSpan) float64 {
 	return m
 }
 
-// signedFootTurn returns the signed parameter change (wrapped into
-// (−π, π]) from the foot of a segment's start to the foot of its end.
+// signedFootTurn returns the signed parameter change from the foot of a
+// segment's start to the foot of its end, summed over sixteen pieces so
+// that a half-circle arc is measured unambiguously.
 func signedFootTurn(e ellipse.Ellipse, s Segment) float64 {
-	return math.Remainder(footParam(e, s.End)-footParam(e, s.Start), 2*math.Pi)
+	const pieces = 16
+	sum := 0.0
+	prev := footParam(e, s.Start)
+	for k := 1; k <= pieces; k++ {
+		t := footParam(e, s.At(float64(k)/pieces))
+		sum += math.Remainder(t-prev, 2*math.Pi)
+		prev = t
+	}
+	return sum
 }
 
 // checkContinuous checks that every segment starts exactly where the one
