@@ -122,7 +122,7 @@ func (r *caseRun) checkLoop(l *loopSums, closed bool, mlo, mhi float64) {
 		r.fail(ErrWinding, "winding number about the centre", fmt.Sprintf("%.9g turns", l.winding/(2*math.Pi)), "exactly 1 or −1")
 		return
 	}
-	turns := (l.turning) / (2 * math.Pi)
+	turns := l.turning / (2 * math.Pi)
 	if !(math.Abs(turns-w) <= 1e-6) {
 		r.fail(ErrWinding, "total turning of the direction", fmt.Sprintf("%.9g turns", turns), fmt.Sprintf("%g, as the winding", w))
 	}
