@@ -100,7 +100,7 @@ func (s *DrillSpec) plan() (ellipse.Parallel, int, error) {
 	if err != nil {
 		return ellipse.Parallel{}, 0, err
 	}
-	if pecks*s.Count > MaxSegments/3 {
+	if float64(pecks)*float64(s.Count) > MaxSegments/3 {
 		return ellipse.Parallel{}, 0, opLimit("Peck", s.Peck, s.Depth*float64(s.Count)*3/MaxSegments, ErrTooMany)
 	}
 	return c, pecks, nil

@@ -233,5 +233,8 @@ func (s ProfileSpec) plan() (*profilePlan, error) {
 	if err := p.planTabs(); err != nil {
 		return nil, err
 	}
+	if err := p.checkSize(); err != nil {
+		return nil, err
+	}
 	return p, nil
 }

@@ -1,7 +1,5 @@
 package toolpath
 
-import "math"
-
 // build appends the whole profile path to dst.
 func (p *profilePlan) build(dst Path) (Path, error) {
 	entry, err := p.pointAt(0)
@@ -160,6 +158,3 @@ func (p *profilePlan) leadArc(at Point, q vec, t float64, in bool) Segment {
 	}
 	return s
 }
-
-// leadLength returns the length of one lead arc: a quarter circle.
-func (p *profilePlan) leadLength() float64 { return math.Pi / 2 * p.lead }

@@ -173,3 +173,22 @@ func (p *profilePlan) planTabs() error {
 	p.tabTop = -s.Depth + s.TabHeight
 	return nil
 }
+
+// checkSize refuses a profile whose path would pass MaxSegments, judged
+// by twice the asymptotic least segment count of one loop ([LowerBound])
+// plus the moves each tab and pass adds, times the passes.
+func (p *profilePlan) checkSize() error {
+	s := &p.s
+	loop := 2*LowerBound(p.curve, s.Geometry, p.zone, s.Tol, 0, 0) + 8*float64(len(p.tabs)) + 8
+	if total := loop * float64(p.passes); total > MaxSegments {
+		most := math.Max(1, math.Floor(MaxSegments/loop))
+		if s.Machine == Laser {
+			return opLimit("Passes", float64(s.Passes), most, ErrTooMany)
+		}
+		if s.Machine == Router && p.passes > 1 {
+			return opLimit("StepDown", s.StepDown, s.Depth/most, ErrTooMany)
+		}
+		return &SpecError{Field: "Tol", Value: s.Tol, Limit: total, Err: ErrTooFine}
+	}
+	return nil
+}

@@ -116,7 +116,7 @@ func TestProfileRefusals(t *testing.T) {
 		spec  ProfileSpec
 		field string
 		err   error
-		limit float64 // NaN: no limit
+		limit float64 // NaN: no limit; +Inf: some limit
 	}{
 		{"zero tool", with(func(s *ProfileSpec) { s.Tool = 0 }), "Tool", ErrNotPositive, math.NaN()},
 		{"negative tool", with(func(s *ProfileSpec) { s.Tool = -3 }), "Tool", ErrNegative, math.NaN()},
@@ -125,6 +125,8 @@ func TestProfileRefusals(t *testing.T) {
 		{"negative stepdown", with(func(s *ProfileSpec) { s.StepDown = -1 }), "StepDown", ErrNegative, math.NaN()},
 		{"zero stepdown", with(func(s *ProfileSpec) { s.StepDown = 0 }), "StepDown", ErrNotPositive, math.NaN()},
 		{"stepdown far too small", with(func(s *ProfileSpec) { s.StepDown = 1e-9 }), "StepDown", ErrTooMany, 12.0 / MaxCount},
+		{"path too long", with(func(s *ProfileSpec) { s.StepDown = 12.0 / 500000 }), "StepDown", ErrTooMany, math.Inf(1)},
+		{"laser passes too many", ProfileSpec{Setup: Setup{Machine: Laser, Tol: 0.05}, Ellipse: e, Kerf: 0.2, Passes: 900000}, "Passes", ErrTooMany, math.Inf(1)},
 		{"tabs as tall as the depth", with(func(s *ProfileSpec) { s.Tabs, s.TabWidth, s.TabHeight = 4, 6, 12 }), "TabHeight", ErrTabTooTall, 12},
 		{"tabs without width", with(func(s *ProfileSpec) { s.Tabs, s.TabHeight = 4, 3 }), "TabWidth", ErrNotPositive, math.NaN()},
 		{"tabs overlapping", with(func(s *ProfileSpec) { s.Tabs, s.TabWidth, s.TabHeight = 100, 20, 3 }), "TabWidth", ErrTabsOverlap, e.Perimeter()/100 + 2*math.Pi*3/100 - 6},
@@ -167,7 +169,11 @@ func TestProfileRefusals(t *testing.T) {
 			if oe.Field != c.field || !errors.Is(err, c.err) {
 				t.Errorf("got %q (field %s), want field %s and %v", err, oe.Field, c.field, c.err)
 			}
-			if math.IsNaN(c.limit) {
+			if math.IsInf(c.limit, 1) {
+				if !oe.HasLimit {
+					t.Errorf("no limit in %q", err)
+				}
+			} else if math.IsNaN(c.limit) {
 				if oe.HasLimit {
 					t.Errorf("unexpected limit %g in %q", oe.Limit, err)
 				}
