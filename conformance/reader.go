@@ -90,6 +90,10 @@ const (
 	// program has given any Z: the tool moves at whatever height it was
 	// left.
 	MoveXYBeforeZ
+	// MoveGivesXY marks a move whose line gives X or Y. With
+	// MoveFromUnknownXY it moves in XY even though its recorded start and
+	// end agree.
+	MoveGivesXY
 )
 
 // Move is what the program said about one segment of [Program.Path].

@@ -202,7 +202,7 @@ M30
 	if p.EndLine != 13 || p.Units != Millimeters || p.Declared != Millimeters || p.UnitsLine != 1 || p.Lines != 13 {
 		t.Errorf("end line %d, units %v declared %v at %d, %d lines; want 13, mm, mm at 1, 13", p.EndLine, p.Units, p.Declared, p.UnitsLine, p.Lines)
 	}
-	if p.Moves[0].Flags != MoveFromUnknownXY|MoveFromUnknownZ || p.Moves[1].Flags != MoveFromUnknownXY {
+	if p.Moves[0].Flags != MoveFromUnknownXY|MoveFromUnknownZ || p.Moves[1].Flags != MoveFromUnknownXY|MoveGivesXY {
 		t.Errorf("first moves' flags %b %b, want unknown XY and Z, then unknown XY", p.Moves[0].Flags, p.Moves[1].Flags)
 	}
 	if len(p.Problems) != 0 {
@@ -216,7 +216,7 @@ func TestReadUnknownStart(t *testing.T) {
 	if got := p.Path[0]; got.Start != (toolpath.Point{X: 5, Y: 6, Z: 7}) || got.End != (toolpath.Point{X: 5, Y: 6, Z: 7}) {
 		t.Errorf("first rapid %+v → %+v, want both at (5, 6, 7)", got.Start, got.End)
 	}
-	if p.Moves[0].Flags != MoveFromUnknownXY|MoveFromUnknownZ|MoveXYBeforeZ || p.Moves[1].Flags != MoveFromUnknownZ {
+	if p.Moves[0].Flags != MoveFromUnknownXY|MoveFromUnknownZ|MoveXYBeforeZ|MoveGivesXY || p.Moves[1].Flags != MoveFromUnknownZ {
 		t.Errorf("flags %b %b, want XY before Z from unknown XY and Z, then from unknown Z", p.Moves[0].Flags, p.Moves[1].Flags)
 	}
 	// An arc needs a known start.

@@ -97,7 +97,9 @@ func checkSafety(p *Program, r Rules, c *collector) {
 				c.add(Violation{RuleRapidBeamOn, m.Line, "a rapid with the beam on (" + m.Spindle.String() + " S" + msgNum(m.Speed) + "): turn it off (M5 or S0) before G0"})
 			}
 		case m.Code == 0:
-			xy := s.Start.X != s.End.X || s.Start.Y != s.End.Y
+			// A first move from an unknown place moves in XY although
+			// its recorded ends agree.
+			xy := s.Start.X != s.End.X || s.Start.Y != s.End.Y || m.Flags&(MoveFromUnknownXY|MoveGivesXY) == MoveFromUnknownXY|MoveGivesXY
 			switch {
 			case m.Flags&MoveXYBeforeZ != 0:
 				c.add(Violation{RuleRapidBelowSafe, m.Line, "a rapid moves in X or Y before the program gives any Z: the tool travels at whatever height it was left; raise it to the safe height first"})

@@ -52,6 +52,7 @@ func TestRules(t *testing.T) {
 
 		{"rapid in XY below safe Z", safe, router("G0 Z2\nG0 X10 Y10"), RuleRapidBelowSafe, true, "at Z 2"},
 		{"rapid in XY at safe Z", safe, router("G0 X10 Y10"), RuleRapidBelowSafe, false, ""},
+		{"first rapid in XY below safe Z", safe, "G21\nG0 Z2\nG0 X10 Y10\nM30\n", RuleRapidBelowSafe, true, "at Z 2"},
 		{"rapid down to a clearance", safe, router("G0 X10 Y10\nG0 Z0.5\nG1 Z-1"), RuleRapidBelowSafe, false, ""},
 		{"rapid up out of the cut", safe, router("G1 Z-1\nG1 X10\nG0 Z5\nG0 X0"), RuleRapidBelowSafe, false, ""},
 		{"rapid plunge into the stock", safe, router("G0 X10 Y10\nG0 Z-1"), RuleRapidBelowSafe, true, "into the stock"},

@@ -246,6 +246,9 @@ func (s *simulator) plan(motion int16, incremental bool) (toolpath.Segment, uint
 	if !s.knownX || !s.knownY {
 		flags |= MoveFromUnknownXY
 	}
+	if b.has&(bitX|bitY) != 0 {
+		flags |= MoveGivesXY
+	}
 	if !s.knownZ {
 		flags |= MoveFromUnknownZ
 		if b.has&(bitX|bitY) != 0 && b.has&bitZ == 0 {
