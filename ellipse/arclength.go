@@ -133,7 +133,10 @@ func (e Ellipse) scaledArc(t0, t1, dn float64) float64 {
 	s1, c1 := math.Sincos(r1)
 	x0, y0 := e.argsX(s0, c0)
 	x1, y1 := e.argsX(s1, c1)
-	rf0, rd0, rf1, rd1 := rfrdPair(x0, y0, e.k2, x1, y1, e.k2)
+	// √X = k·|cos r| and √Z = k need no square root; Y > 0 always
+	// (|sin r| and cos r are not both 0).
+	rf0, rd0, rf1, rd1 := rfrdPairRoots(x0, y0, e.k2, e.k*math.Abs(c0), math.Sqrt(y0), e.k,
+		x1, y1, e.k2, e.k*math.Abs(c1), math.Sqrt(y1), e.k)
 	dl := e.lengthX(s1, rf1, rd1) - e.lengthX(s0, rf0, rd0)
 	l := float64((n1-n0)*2*e.quarter) + dl
 	if dn != 0 {

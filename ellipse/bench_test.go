@@ -4,17 +4,21 @@ import (
 	"math"
 	"strconv"
 	"testing"
+	"time"
 
 	"gonum.org/v1/gonum/mathext"
 )
 
 // Benchmarks. The performance targets compare within one run:
 //
-//	go test ./ellipse -run '^$' -bench 'ArcLength|ParamAtArcLength|Divide' -count 5
+//	go test ./ellipse -run '^$' -bench 'Ratio|Divide' -count 5
 //
-// ArcLength/ours against ArcLength/gonum-difference (the same arcs as
-// differences of gonum's EllipticE), ParamAtArcLength against
-// ArcLength/ours, and the ns/point of Divide across N.
+// BenchmarkRatio alternates blocks of the two sides of each comparison
+// (ArcLength against the same arcs as differences of gonum's EllipticE,
+// ParamAtArcLength against ArcLength) inside one benchmark and reports
+// both costs and their ratio, so that a busy machine slows both alike;
+// the separate benchmarks below give the plain figures. Divide reports
+// ns/point across N.
 
 // arcCase is one arc for the benchmarks: an ellipse whose own y axis is
 // the major one, so that s(t0, t1) = a·(E(t1|m) − E(t0|m)) with
@@ -102,12 +106,62 @@ func BenchmarkArcLength(b *testing.B) {
 	_ = out.v
 }
 
-func BenchmarkParamAtArcLength(b *testing.B) {
+// BenchmarkRatio measures ours against gonum on the arc cases, and the
+// inverse against the arc length, timing alternate blocks.
+func BenchmarkRatio(b *testing.B) {
 	cs := arcCases(b)
+	s := inverseTargets(cs)
+	var out sink
+	ours := func() {
+		for _, c := range cs {
+			out.v += c.e.ArcLength(c.t0, c.t1)
+		}
+	}
+	gonum := func() {
+		for _, c := range cs {
+			out.v += c.a * (mathext.EllipticE(c.t1, c.m) - mathext.EllipticE(c.t0, c.m))
+		}
+	}
+	inverse := func() {
+		for i, c := range cs {
+			out.v += c.e.ParamAtArcLength(s[i])
+		}
+	}
+	var tOurs, tGonum, tInverse time.Duration
+	for b.Loop() {
+		t0 := time.Now()
+		ours()
+		t1 := time.Now()
+		gonum()
+		t2 := time.Now()
+		inverse()
+		t3 := time.Now()
+		tOurs += t1.Sub(t0)
+		tGonum += t2.Sub(t1)
+		tInverse += t3.Sub(t2)
+	}
+	n := float64(b.N * len(cs))
+	b.ReportMetric(float64(tOurs.Nanoseconds())/n, "ns/arc")
+	b.ReportMetric(float64(tGonum.Nanoseconds())/n, "gonum-ns/arc")
+	b.ReportMetric(float64(tInverse.Nanoseconds())/n, "ns/inverse")
+	b.ReportMetric(float64(tOurs)/float64(tGonum), "arc/gonum")
+	b.ReportMetric(float64(tInverse)/float64(tOurs), "inverse/arc")
+	_ = out.v
+}
+
+// inverseTargets returns lengths spread over the curves of cs, some
+// several turns out.
+func inverseTargets(cs []arcCase) []float64 {
 	s := make([]float64, len(cs))
 	for i, c := range cs {
 		s[i] = c.e.ArcLength(0, c.t1) + float64(i%3)*c.e.Perimeter()
 	}
+	return s
+}
+
+func BenchmarkParamAtArcLength(b *testing.B) {
+	cs := arcCases(b)
+	s := inverseTargets(cs)
 	var out sink
 	for b.Loop() {
 		for i, c := range cs {

@@ -56,6 +56,13 @@ func rfrd(x, y, z float64) (rf, rd float64) {
 	case x+y == 0:
 		return math.Inf(1), math.Inf(1)
 	}
+	return rfrdRoots(x, y, z, math.Sqrt(x), math.Sqrt(y), math.Sqrt(z))
+}
+
+// rfrdRoots is rfrd for valid arguments whose square roots sx, sy, sz the
+// caller already has (the arc-length code knows them from the sine and
+// cosine), which saves the first step's three square roots.
+func rfrdRoots(x, y, z, sx, sy, sz float64) (rf, rd float64) {
 	af0 := (x + y + z) / 3
 	ad0 := (x + y + 3*z) / 5
 	qf := carlsonQF * maxDev(af0, x, y, z)
@@ -64,12 +71,15 @@ func rfrd(x, y, z float64) (rf, rd float64) {
 	fac, sum := 1.0, 0.0
 	xm, ym, zm := x, y, z
 	for fac*qf >= af || fac*qd >= ad {
-		sx, sy, sz := math.Sqrt(xm), math.Sqrt(ym), math.Sqrt(zm)
 		lam := float64(sx*sy) + float64(sy*sz) + float64(sz*sx)
 		sum += fac / (sz * (zm + lam))
 		fac *= 0.25
 		xm, ym, zm = (xm+lam)*0.25, (ym+lam)*0.25, (zm+lam)*0.25
 		af, ad = (af+lam)*0.25, (ad+lam)*0.25
+		if !(fac*qf >= af || fac*qd >= ad) {
+			break
+		}
+		sx, sy, sz = math.Sqrt(xm), math.Sqrt(ym), math.Sqrt(zm)
 	}
 	return rfSeries(af0, af, fac, x, y), rdSeries(ad0, ad, fac, sum, x, y)
 }
@@ -85,6 +95,13 @@ func rfrdPair(x0, y0, z0, x1, y1, z1 float64) (rf0, rd0, rf1, rd1 float64) {
 		rf1, rd1 = rfrd(x1, y1, z1)
 		return
 	}
+	return rfrdPairRoots(x0, y0, z0, math.Sqrt(x0), math.Sqrt(y0), math.Sqrt(z0),
+		x1, y1, z1, math.Sqrt(x1), math.Sqrt(y1), math.Sqrt(z1))
+}
+
+// rfrdPairRoots is rfrdPair given the square roots of both triples (see
+// rfrdRoots); both triples must be valid and have x + y > 0.
+func rfrdPairRoots(x0, y0, z0, sxa, sya, sza, x1, y1, z1, sxb, syb, szb float64) (rf0, rd0, rf1, rd1 float64) {
 	af0 := (x0 + y0 + z0) / 3
 	ad0 := (x0 + y0 + 3*z0) / 5
 	af1 := (x1 + y1 + z1) / 3
@@ -98,8 +115,6 @@ func rfrdPair(x0, y0, z0, x1, y1, z1 float64) (rf0, rd0, rf1, rd1 float64) {
 	xa, ya, za := x0, y0, z0
 	xb, yb, zb := x1, y1, z1
 	for fac*qf0 >= fa || fac*qd0 >= da || fac*qf1 >= fb || fac*qd1 >= db {
-		sxa, sya, sza := math.Sqrt(xa), math.Sqrt(ya), math.Sqrt(za)
-		sxb, syb, szb := math.Sqrt(xb), math.Sqrt(yb), math.Sqrt(zb)
 		la := float64(sxa*sya) + float64(sya*sza) + float64(sza*sxa)
 		lb := float64(sxb*syb) + float64(syb*szb) + float64(szb*sxb)
 		sum0 += fac / (sza * (za + la))
@@ -109,6 +124,11 @@ func rfrdPair(x0, y0, z0, x1, y1, z1 float64) (rf0, rd0, rf1, rd1 float64) {
 		xb, yb, zb = (xb+lb)*0.25, (yb+lb)*0.25, (zb+lb)*0.25
 		fa, da = (fa+la)*0.25, (da+la)*0.25
 		fb, db = (fb+lb)*0.25, (db+lb)*0.25
+		if !(fac*qf0 >= fa || fac*qd0 >= da || fac*qf1 >= fb || fac*qd1 >= db) {
+			break
+		}
+		sxa, sya, sza = math.Sqrt(xa), math.Sqrt(ya), math.Sqrt(za)
+		sxb, syb, szb = math.Sqrt(xb), math.Sqrt(yb), math.Sqrt(zb)
 	}
 	rf0 = rfSeries(af0, fa, fac, x0, y0)
 	rd0 = rdSeries(ad0, da, fac, sum0, x0, y0)
@@ -123,6 +143,9 @@ func rfrdPair(x0, y0, z0, x1, y1, z1 float64) (rf0, rd0, rf1, rd1 float64) {
 //
 //	R_F ≈ Aₙ^(−1/2)·(1 − E₂/10 + E₃/14 + E₂²/24 − 3E₂E₃/44
 //	                 − 5E₂³/208 + 3E₃²/104 + E₂²E₃/16).
+//
+// The coefficients are applied as products with their reciprocals, which
+// changes the small correction terms by less than an ulp of the sum.
 func rfSeries(a0, an, fac, x, y float64) float64 {
 	inv := fac / an // 4⁻ⁿ/Aₙ
 	X := (a0 - x) * inv
@@ -131,11 +154,10 @@ func rfSeries(a0, an, fac, x, y float64) float64 {
 	xy := float64(X * Y)
 	e2 := xy - float64(Z*Z)
 	e3 := float64(xy * Z)
-	e22 := float64(e2 * e2)
-	// Smallest terms first.
-	s := float64(e22*e3)/16 + float64(3*float64(e3*e3))/104 - float64(5*float64(e22*e2))/208
-	s += float64(e22/24) - float64(3*float64(e2*e3))/44
-	s += e3/14 - e2/10
+	// e2·(−1/10 + e2·(1/24 − e2·5/208)) + e3·(1/14 − e2·3/44 + e3·3/104 + e2²/16)
+	p2 := -1.0/10 + float64(e2*(1.0/24-float64(e2*(5.0/208))))
+	p3 := 1.0/14 - float64(e2*(3.0/44)) + float64(e3*(3.0/104)) + float64(float64(e2*e2)*(1.0/16))
+	s := float64(e2*p2) + float64(e3*p3)
 	return (1 + s) / math.Sqrt(an)
 }
 
@@ -150,19 +172,19 @@ func rdSeries(a0, an, fac, sum, x, y float64) float64 {
 	inv := fac / an
 	X := (a0 - x) * inv
 	Y := (a0 - y) * inv
-	Z := -(X + Y) / 3
+	Z := -(X + Y) * (1.0 / 3)
 	xy := float64(X * Y)
 	zz := float64(Z * Z)
-	e2 := xy - 6*zz
+	e2 := xy - float64(6*zz)
 	e3 := float64((float64(3*xy) - float64(8*zz)) * Z)
 	e4 := float64(3 * float64((xy-zz)*zz))
 	e5 := float64(float64(xy*Z) * zz)
-	e22 := float64(e2 * e2)
-	// Order 7, then 6, then 5 and below.
-	s := float64(45*float64(e22*e3))/272 - float64(9*(float64(e3*e4)+float64(e2*e5)))/68
-	s += float64(3*float64(e3*e3))/40 + float64(3*float64(e2*e4))/20 - float64(e22*e2)/16
-	s += float64(9*e22)/88 - float64(3*e4)/22 - float64(9*float64(e2*e3))/52 + float64(3*e5)/26
-	s += e3/6 - float64(3*e2)/14
+	// Grouped by E₂ and E₃, highest orders innermost:
+	// e2·(−3/14 + e2·(9/88 − e2/16) + e4·3/20 − e5·9/68)
+	// + e3·(1/6 − e2·(9/52 − e2·45/272) + e3·3/40 − e4·9/68) − e4·3/22 + e5·3/26
+	p2 := -3.0/14 + float64(e2*(9.0/88-float64(e2*(1.0/16)))) + float64(e4*(3.0/20)) - float64(e5*(9.0/68))
+	p3 := 1.0/6 - float64(e2*(9.0/52-float64(e2*(45.0/272)))) + float64(e3*(3.0/40)) - float64(e4*(9.0/68))
+	s := float64(e2*p2) + float64(e3*p3) - float64(e4*(3.0/22)) + float64(e5*(3.0/26))
 	return float64(fac*(1+s))/float64(an*math.Sqrt(an)) + float64(3*sum)
 }
 

@@ -42,7 +42,12 @@ func (e Ellipse) quadSpan(rm float64) float64 {
 	} else if rm < -math.Pi/2 {
 		rm += math.Pi
 	}
-	return math.Min(1, math.Hypot(rm, e.atk)/4)
+	// atk is +Inf for a circle, and then so is the distance.
+	d := math.Sqrt(float64(rm*rm) + float64(e.atk*e.atk))
+	if d >= 4 {
+		return 1
+	}
+	return d / 4
 }
 
 // quadArc returns s_d/a over the internal-frame interval [r0, r0 + delta]

@@ -83,9 +83,9 @@ func (e Ellipse) solveReduced(w, dn, r0 float64) (float64, int) {
 	for i := 1; i <= 100; i++ {
 		s, c := math.Sincos(r)
 		x, y := e.argsX(s, c)
-		rf, rd := rfrd(x, y, e.k2)
-		f := e.lengthX(s, rf, rd)
 		v := math.Sqrt(y) // scaled speed √(sin²r + k²cos²r)
+		rf, rd := rfrdRoots(x, y, e.k2, e.k*math.Abs(c), v, e.k)
+		f := e.lengthX(s, rf, rd)
 		dv := float64(e.m1*s) * c / v
 		fp, fpp, q := v, dv, 0.0
 		if dn != 0 {
