@@ -129,7 +129,7 @@ type Program struct {
 	Moves []Move
 	// Units is the unit of every length in Path and of Feed: the one
 	// asked for in [ReadOptions.Units], else the program's first G20 or
-	// G21, else millimetres.
+	// G21 (when it comes before the first length), else millimetres.
 	Units Units
 	// Declared is the program's first G20 or G21, or UnitsUnset.
 	Declared Units
@@ -153,7 +153,8 @@ type Program struct {
 // ReadOptions adjusts [Read]. The zero value is ready to use.
 type ReadOptions struct {
 	// Units, when set, is the unit the path is returned in: lengths the
-	// program writes in the other unit are converted (1 in = 25.4 mm).
+	// program writes in the other unit are converted (1 in = 25.4 mm). It
+	// is also the unit assumed for lines before any G20 or G21.
 	Units Units
 	// MaxProblems bounds the problems (and after-end lines) kept;
 	// 0 means 1000.

@@ -289,6 +289,10 @@ func TestReadProblemLimit(t *testing.T) {
 	if len(p.Problems) != 10 || p.ProblemsDropped != 40 {
 		t.Errorf("%d problems kept, %d dropped; want 10 and 40", len(p.Problems), p.ProblemsDropped)
 	}
+	vs := Check(p, Rules{MaxPerRule: 100})
+	if n := len(vs); n != 12 || vs[0].Rule != RuleTooMany || !strings.Contains(vs[0].Message, "40 more") {
+		t.Errorf("Check: %d violations, first %v; want 10 syntax, too-many-problems and program-end", n, vs[0])
+	}
 	if _, err := Read(make([]byte, 100), ReadOptions{MaxBytes: 99}); err == nil {
 		t.Error("Read over MaxBytes: no error")
 	}

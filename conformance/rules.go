@@ -161,7 +161,9 @@ type Shape struct {
 }
 
 // Rules chooses the rules [Check] applies. The zero value checks a router
-// program with a safe height of 0 and no travel limits or shape.
+// program with a safe height of 0 and no travel limits or shape. Every
+// length (SafeZ, Travel, Shape) is in the unit of the program's path,
+// [Program.Units]: read the program with [ReadOptions.Units] to choose it.
 type Rules struct {
 	Machine Machine
 	// SafeZ is the height rapids that move in X or Y must keep (router,

@@ -1,12 +1,14 @@
 package conformance
 
 import (
+	"bytes"
 	"math"
 	"strconv"
 	"strings"
 	"testing"
 
 	"github.com/focitools/foci/ellipse"
+	"github.com/focitools/foci/gcodeout"
 	"github.com/focitools/foci/toolpath"
 )
 
@@ -329,5 +331,75 @@ func TestGeometrySummary(t *testing.T) {
 	}
 	if !(sum.DeviationLo >= 0 && sum.DeviationHi <= geoTol && sum.DeviationHi > 0) {
 		t.Errorf("deviation [%v, %v], want inside [0, %v]", sum.DeviationLo, sum.DeviationHi, geoTol)
+	}
+}
+
+// Paths from the library's approximation, written by gcodeout for each
+// machine, read back without a problem and keep every rule.
+func TestWrittenApproximationsPass(t *testing.T) {
+	c := signBlank(t)
+	for _, m := range []struct {
+		name    string
+		machine Machine
+		cfg     gcodeout.Config
+		z       float64
+	}{
+		{"router", Router, gcodeout.Config{Machine: gcodeout.Router, Feed: 900, RPM: 16000, SafeZ: 5}, -2},
+		{"laser", Laser, gcodeout.Config{Machine: gcodeout.Laser, Feed: 900, Power: 500}, 0},
+		{"plotter", Plotter, gcodeout.Config{Machine: gcodeout.Plotter, Feed: 3000, PenUp: 3}, 0},
+	} {
+		for _, geom := range []toolpath.Geometry{toolpath.Lines, toolpath.Arcs} {
+			for _, zone := range []toolpath.Zone{toolpath.Band, toolpath.Outside, toolpath.Inside} {
+				name := m.name + "/" + geom.String() + "/" + zone.String()
+				cfg := m.cfg
+				cfg.Tolerance = geoTol
+				var buf bytes.Buffer
+				w, err := gcodeout.NewWriter(&buf, cfg)
+				if err != nil {
+					t.Fatal(err)
+				}
+				path, err := toolpath.Approximate(nil, toolpath.Spec{Curve: c, Zone: zone, Tol: geoTol, Geometry: geom, Decimals: w.Decimals(), Z: m.z})
+				if err != nil {
+					t.Fatalf("%s: %v", name, err)
+				}
+				up := 5.0
+				if m.machine == Plotter {
+					up = 3
+				}
+				start, above := path[0].Start, path[0].Start
+				above.Z = up
+				if m.machine == Laser {
+					above.Z = 0
+				}
+				lead := []toolpath.Segment{{Kind: toolpath.Line, Motion: toolpath.Travel, Start: toolpath.Point{Z: above.Z}, End: above}}
+				if m.machine != Laser {
+					lead = append(lead, toolpath.Segment{Kind: toolpath.Line, Motion: toolpath.Cut, Role: toolpath.Plunge, Start: above, End: start})
+				}
+				for _, s := range append(lead, path...) {
+					if err := w.WriteSegment(s); err != nil {
+						t.Fatalf("%s: %v", name, err)
+					}
+				}
+				if m.machine != Laser {
+					end := path[len(path)-1].End
+					lift := end
+					lift.Z = up
+					if err := w.WriteSegment(toolpath.Segment{Kind: toolpath.Line, Motion: toolpath.Travel, Start: end, End: lift}); err != nil {
+						t.Fatalf("%s: %v", name, err)
+					}
+				}
+				if err := w.Close(); err != nil {
+					t.Fatal(err)
+				}
+				p := read(t, buf.String())
+				rep := CheckReport(p, Rules{Machine: m.machine, SafeZ: up, Shape: &Shape{Curve: c, Zone: zone, Tol: geoTol}})
+				if len(rep.Violations) != 0 || len(p.Problems) != 0 {
+					t.Errorf("%s: %v", name, firstFew(rep.Violations))
+				}
+				if s := rep.Summary; s.Contour != len(path) || s.Runs != 1 {
+					t.Errorf("%s: %d contour moves in %d runs, want %d in 1", name, s.Contour, s.Runs, len(path))
+				}
+			}
+		}
 	}
 }
