@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/focitools/foci/ellipse"
+	"pgregory.net/rapid"
 )
 
 func TestDashPattern(t *testing.T) {
@@ -179,4 +180,46 @@ func TestDashRefusals(t *testing.T) {
 			}
 		})
 	}
+}
+
+// Over random shapes, offsets, patterns and machines, a dash path has the
+// number of dashes DashPattern gives, each within the band about the
+// curve, with travels at the travel height.
+func TestDashPropertyPattern(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		e := drawEllipse(t)
+		rho := e.MinRadiusOfCurvature()
+		s := DashSpec{Ellipse: e, Clockwise: rapid.Bool().Draw(t, "cw")}
+		s.Tol = math.Min(0.05, 0.2*rho)
+		s.Geometry = Geometry(rapid.IntRange(0, 1).Draw(t, "arcs"))
+		s.Offset = rapid.Float64Range(-0.7, 2).Draw(t, "offsetShare") * rho
+		c, _ := e.Parallel(s.Offset)
+		l := c.Length()
+		s.Off = l * rapid.Float64Range(0.005, 0.5).Draw(t, "offShare")
+		s.On = l * rapid.Float64Range(0.002, 0.5).Draw(t, "onShare")
+		switch s.Machine = Machine(rapid.IntRange(1, 3).Draw(t, "machine")); s.Machine {
+		case Router:
+			s.SafeZ, s.Depth = 5, rapid.Float64Range(0.05, 3).Draw(t, "depth")
+		case Plotter:
+			s.PenUp = 2
+		}
+		p, err := Dash(nil, s)
+		if err != nil {
+			t.Fatalf("valid spec refused: %v", err)
+		}
+		checkContinuous(t, p)
+		checkTravels(t, s.Setup, p)
+		n, _, _ := DashPattern(l, s.On, s.Off)
+		st := strokes(p)
+		if len(st) != n {
+			t.Fatalf("%d dashes, want %d", len(st), n)
+		}
+		for k, d := range st {
+			for _, g := range d {
+				if lo, hi := opsDeviation(c, g); lo < -s.Tol || hi > s.Tol {
+					t.Fatalf("dash %d deviates %g..%g, outside ±%g", k, lo, hi, s.Tol)
+				}
+			}
+		}
+	})
 }

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/focitools/foci/ellipse"
+	"pgregory.net/rapid"
 )
 
 // holeSites returns the XY position of every hole, mark or dot of a Drill
@@ -203,4 +204,42 @@ func TestDrillRefusals(t *testing.T) {
 			}
 		})
 	}
+}
+
+// Over random shapes, offsets, counts and machines, the holes lie on the
+// curve at equal arc length from parameter 0, every travel in XY is at
+// the travel height, and the path is continuous.
+func TestDrillPropertySpacingAndSafety(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		e := drawEllipse(t)
+		off := rapid.Float64Range(-0.9, 3).Draw(t, "offsetShare") * e.MinRadiusOfCurvature()
+		s := DrillSpec{Ellipse: e, Offset: off, Count: rapid.IntRange(1, 60).Draw(t, "count"), Clockwise: rapid.Bool().Draw(t, "cw")}
+		s.Tol = 0.05
+		switch s.Machine = Machine(rapid.IntRange(1, 3).Draw(t, "machine")); s.Machine {
+		case Router:
+			s.SafeZ = rapid.Float64Range(1, 20).Draw(t, "safeZ")
+			s.Depth = rapid.Float64Range(0.1, 40).Draw(t, "depth")
+			if rapid.Bool().Draw(t, "pecking") {
+				s.Peck = s.Depth * rapid.Float64Range(0.02, 1.2).Draw(t, "peckShare")
+			}
+			s.PeckRetract = s.SafeZ * rapid.Float64Range(0, 1).Draw(t, "retractShare")
+		case Laser:
+			s.MarkSeconds = rapid.Float64Range(0.01, 5).Draw(t, "seconds")
+		default:
+			s.PenUp = rapid.Float64Range(0.5, 10).Draw(t, "penUp")
+		}
+		p, err := Drill(nil, s)
+		if err != nil {
+			t.Fatalf("valid spec refused: %v", err)
+		}
+		checkContinuous(t, p)
+		checkTravels(t, s.Setup, p)
+		c, _ := e.Parallel(off)
+		checkSpacing(t, c, holeSites(p), s.Count, s.Clockwise)
+		if s.Machine == Router {
+			if lo, _, _ := p.ZRange(); lo != -s.Depth {
+				t.Errorf("deepest point %g, want %g", lo, -s.Depth)
+			}
+		}
+	})
 }
