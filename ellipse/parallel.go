@@ -79,7 +79,7 @@ func (p Parallel) ArcLength(t0, t1 float64) float64 {
 // ParamAtArcLength returns the parameter t with ArcLength(0, t) = s, for
 // any real s (see [Ellipse.ParamAtArcLength]). On the end caps of an
 // outward parallel of a flat ellipse the curve runs fast in t (up to
-// Offset·a/b² per radian), so there the round trip holds to that speed
+// b + Offset·a/b per radian), so there the round trip holds to that speed
 // times an ulp of t.
 func (p Parallel) ParamAtArcLength(s float64) float64 {
 	return p.e.paramAt(s/p.e.a, p.d/p.e.a)
