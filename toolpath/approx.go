@@ -49,6 +49,7 @@ var (
 	ErrDecimals  = errors.New("too few decimals for the tolerance")
 	ErrInvalid   = errors.New("invalid curve")
 	ErrRange     = errors.New("parameter range must be finite, not empty, and at most one turn")
+	ErrStalled   = errors.New("approximation stopped: far more segments than the tolerance needs (please report the shape)")
 	ErrOffset    = errors.New("the zone reaches inward past the minimum radius of curvature, where the parallel curves fold: use a smaller tolerance, a smaller inward offset or the outside zone")
 )
 
@@ -125,6 +126,8 @@ type Approximator struct {
 	tEnd  float64
 	done  bool
 	n     int // segments emitted
+	limit int // segments allowed before the approximation counts as stalled
+	err   error
 	arcs  arcState
 }
 
@@ -186,9 +189,13 @@ func (a *Approximator) Reset(s Spec) error {
 			a.sigma = -1
 		}
 	}
-	if n := a.EstimateSegments(); n > MaxSegments {
+	n := a.quickEstimate()
+	if n > MaxSegments {
 		return &SpecError{Field: "Tol", Value: s.Tol, Limit: n, Err: ErrTooFine}
 	}
+	// A guard against a stepping bug running away: eight times the
+	// asymptotic minimum is far beyond what either approximator needs.
+	a.limit = int(8*n) + 256
 	if s.Geometry == Arcs {
 		a.arcs.start(a)
 	}
@@ -209,10 +216,22 @@ func (a *Approximator) EstimateSegments() float64 {
 	return lowerBound(&a.f, a.spec.Geometry, a.hi-a.lo, a.spec.From, a.tEnd)
 }
 
+// quickEstimate is a cheap N* for the segment-count guard: 4-point Gauss
+// on 16 panels per quarter, good to a few per cent except on the flattest
+// ellipses, where it errs low; the guard has a wide margin.
+func (a *Approximator) quickEstimate() float64 {
+	return lowerBoundFixed(&a.f, a.spec.Geometry, a.hi-a.lo, a.spec.From, a.tEnd)
+}
+
 // Next returns the next segment and true, or false when the path is
 // complete. Segments are Cut motion at height Spec.Z.
 func (a *Approximator) Next() (Segment, bool) {
 	if a.done {
+		return Segment{}, false
+	}
+	if a.n >= a.limit {
+		a.done = true
+		a.err = &SpecError{Field: "Tol", Value: a.spec.Tol, Err: ErrStalled}
 		return Segment{}, false
 	}
 	var s Segment
@@ -232,6 +251,10 @@ func (a *Approximator) Next() (Segment, bool) {
 	return s, true
 }
 
+// Err returns nil, or the error that ended the stream early (a
+// [*SpecError] wrapping [ErrStalled]); check it after Next reports false.
+func (a *Approximator) Err() error { return a.err }
+
 // Approximate appends the whole approximation of s to dst.
 func Approximate(dst Path, s Spec) (Path, error) {
 	var a Approximator
@@ -241,7 +264,7 @@ func Approximate(dst Path, s Spec) (Path, error) {
 	for seg, ok := a.Next(); ok; seg, ok = a.Next() {
 		dst = append(dst, seg)
 	}
-	return dst, nil
+	return dst, a.Err()
 }
 
 // LowerBound returns the asymptotic minimum segment count N* for
@@ -271,11 +294,9 @@ func LowerBound(curve ellipse.Parallel, g Geometry, zone Zone, tol, from, to flo
 	return lowerBound(&f, g, w, from, to)
 }
 
-func lowerBound(f *frame, g Geometry, w float64, from, to float64) float64 {
-	if to < from {
-		from, to = to, from
-	}
-	integrand := func(t float64) float64 {
+// countDensity returns the integrand of N* in the parameter t.
+func countDensity(f *frame, g Geometry, w float64) func(float64) float64 {
+	return func(t float64) float64 {
 		ke, dke := f.ellipseCurvature(t)
 		g1 := 1 + f.d*ke
 		v := f.speed(t, f.d)
@@ -284,6 +305,27 @@ func lowerBound(f *frame, g Geometry, w float64, from, to float64) float64 {
 		}
 		return math.Cbrt(math.Abs(dke)/(g1*g1*g1)/(96*w)) * v
 	}
+}
+
+func lowerBoundFixed(f *frame, g Geometry, w float64, from, to float64) float64 {
+	if to < from {
+		from, to = to, from
+	}
+	integrand := countDensity(f, g, w)
+	const panels = 64
+	h := (to - from) / panels
+	sum := 0.0
+	for i := 0; i < panels; i++ {
+		sum += gauss4(integrand, from+float64(i)*h, from+float64(i+1)*h)
+	}
+	return sum
+}
+
+func lowerBound(f *frame, g Geometry, w float64, from, to float64) float64 {
+	if to < from {
+		from, to = to, from
+	}
+	integrand := countDensity(f, g, w)
 	// Adaptive Gauss–Legendre on each stretch between the vertices (the
 	// integrand is smooth there but sharply peaked at the tips of a flat
 	// ellipse).
@@ -292,7 +334,11 @@ func lowerBound(f *frame, g Geometry, w float64, from, to float64) float64 {
 	for lo := from; lo < to; q++ {
 		hi := math.Min(to, (q+1)*math.Pi/2)
 		if hi > lo {
-			sum += adaptiveGauss(integrand, lo, hi, gauss4(integrand, lo, hi), 1e-7, 30)
+			whole := gauss4(integrand, lo, hi)
+			// An absolute tolerance from a first estimate: the arc
+			// integrand has cube-root corners at the vertices, where a
+			// relative test would recurse to the bottom.
+			sum += adaptiveGauss(integrand, lo, hi, whole, 1e-6*math.Abs(whole)+1e-12, 40)
 		}
 		lo = hi
 	}
@@ -309,12 +355,14 @@ func gauss4(f func(float64) float64, a, b float64) float64 {
 	return h * (w1*(f(m-x1*h)+f(m+x1*h)) + w2*(f(m-x2*h)+f(m+x2*h)))
 }
 
-// adaptiveGauss refines whole when the two halves disagree with it.
+// adaptiveGauss refines whole, the integral over [a, b], until its two
+// halves agree with it to the absolute tolerance tol (halved at each
+// level).
 func adaptiveGauss(f func(float64) float64, a, b, whole, tol float64, depth int) float64 {
 	m := 0.5 * (a + b)
 	l, r := gauss4(f, a, m), gauss4(f, m, b)
-	if depth <= 0 || math.Abs(l+r-whole) <= tol*math.Abs(l+r) {
+	if depth <= 0 || math.Abs(l+r-whole) <= tol {
 		return l + r
 	}
-	return adaptiveGauss(f, a, m, l, tol, depth-1) + adaptiveGauss(f, m, b, r, tol, depth-1)
+	return adaptiveGauss(f, a, m, l, tol/2, depth-1) + adaptiveGauss(f, m, b, r, tol/2, depth-1)
 }

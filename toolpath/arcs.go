@@ -23,19 +23,22 @@ type ellipsePoint = ellipse.Point
 // feet these points run over the whole arc. λ is sampled at arcSamples
 // points and its extremes refined by a parabola through the neighbours.
 //
-// Where an arc would be too flat to write soundly (radius above
-// arcMaxRadius semi-major axes, or a rise over its chord below the rounding
-// allowance), a line along the current tangent is used instead; it keeps
+// Where an arc would be too flat to write soundly (a rise over its chord
+// below the rounding allowance, or a radius above arcMaxRadius times the largest radius of curvature of the
+// curve), a line along the current tangent is used instead; it keeps
 // the chain tangent-continuous. The chain is closed (or ended) by
 // interpolating biarcs onto the curve's own tangent.
 
 const (
-	arcSamples   = 8
-	maxSamples   = 128
-	devMiss      = 0.002
-	arcTarget    = 0.997 // aim at this fraction of the usable half-width
-	arcAccept    = 0.985 // accept anything in [arcAccept, 1]
-	arcMaxRadius = 100   // in semi-major axes
+	arcSamples = 8
+	maxSamples = 128
+	devMiss    = 0.002
+	arcTarget  = 0.987 // aim at this fraction of the usable half-width
+	arcAccept  = 0.975 // accept anything in [arcAccept, arcLimit]
+	// arcLimit keeps 1% of the half-width for what the sampled extremes
+	// may miss (devMiss is the estimate; the rest is margin).
+	arcLimit     = 0.99
+	arcMaxRadius = 4 // times the curve's largest radius of curvature
 	arcMaxSteps  = 10
 )
 
@@ -52,6 +55,8 @@ type arcState struct {
 	second  Segment
 	t0End   float64 // parameter where closing started
 	p0, t0  vec     // the point and tangent the path must end with
+	full    bool    // the whole closed curve is one full circle
+	circle  Segment
 }
 
 // mid returns the middle of the usable zone.
@@ -60,13 +65,52 @@ func (a *Approximator) mid() float64 { return 0.5 * (a.lo + a.hi) }
 func (s *arcState) start(a *Approximator) {
 	f := &a.f
 	m := a.mid()
-	p, tg, _ := f.at(a.spec.From, f.d+m)
-	*s = arcState{p: p, tan: tg.scale(a.sigma), tp: a.spec.From, dev: m}
-	q, tq, _ := f.at(a.tEnd, f.d+m)
-	if !a.spec.Open {
-		q = p
+	p, tg, n := f.at(a.spec.From, f.d+m)
+	tan := tg.scale(a.sigma)
+	// Start on the steady pattern: crossing the middle of the zone with
+	// slope g = κ′L²/12 (see endDeviation), L from the single-arc model.
+	ke, dke := f.ellipseCurvature(a.spec.From)
+	g1 := 1 + f.d*ke
+	kp := a.sigma * dke / (g1 * g1 * g1)
+	if kp != 0 {
+		l := math.Cbrt(62 * (a.hi - a.lo) / math.Abs(kp))
+		l = math.Min(l, math.Pi/4*f.speed(a.spec.From, f.d))
+		g := kp * l * l / 12
+		g = math.Max(-0.5, math.Min(0.5, g))
+		tan = tan.add(n.scale(g)).scale(1 / math.Hypot(1, g))
 	}
+	*s = arcState{p: p, tan: tan, tp: a.spec.From, dev: m}
+	q, tq, _ := f.at(a.tEnd, f.d+m)
 	s.p0, s.t0 = q, tq.scale(a.sigma)
+	if !a.spec.Open {
+		s.p0, s.t0 = p, tan
+		s.fullCircle(a)
+	}
+}
+
+// fullCircle checks whether one full circle about the centre stays in the
+// zone of a nearly round curve, and if so prepares it as the whole path.
+func (s *arcState) fullCircle(a *Approximator) {
+	f := &a.f
+	e := f.e
+	r := 0.5*(e.SemiMajor()+e.SemiMinor()) + f.d + a.mid()
+	c := vec{f.cx, f.cy}
+	if (e.SemiMajor()-e.SemiMinor())/2 > a.hi-a.lo {
+		return
+	}
+	q, _, _ := f.at(a.spec.From, f.d)
+	u := q.sub(c)
+	u = u.scale(1 / u.norm())
+	start := c.addScaled(u, r)
+	g := arcGeom{c: c, r: r, sv: start.sub(c), dir: a.sigma, sweep: 2 * math.Pi, wide: math.Inf(1)}
+	d0 := f.circleDev(a.spec.From, &g)
+	lo, hi := a.devRange(a.spec.From, a.tEnd, d0, d0, &g)
+	if m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo); !(lo >= m-w && hi <= m+w) {
+		return
+	}
+	s.full = true
+	s.circle = Segment{Kind: Arc, Start: Point{X: start.x, Y: start.y}, End: Point{X: start.x, Y: start.y},
+		CenterX: c.x, CenterY: c.y, Radius: r, Clockwise: a.sigma < 0}
 }
 
 // arcGeom is a candidate arc (or line) ready for deviation sampling.
@@ -78,12 +122,13 @@ type arcGeom struct {
 	sv    vec     // start − centre
 	dir   float64 // +1 counter-clockwise, −1 clockwise
 	sweep float64 // turning from start to end, in (0, 2π]
+	wide  float64 // radius above which the near crossing is the arc's
 }
 
 // newArcGeom describes the arc from p with tangent tg and signed
 // curvature k that ends at q (k == 0: the line from p along tg).
-func newArcGeom(p, tg vec, k float64, q vec) arcGeom {
-	g := arcGeom{p: p, nl: tg.left()}
+func (a *Approximator) newArcGeom(p, tg vec, k float64, q vec) arcGeom {
+	g := arcGeom{p: p, nl: tg.left(), wide: 16 * (a.hi - a.lo + math.Abs(a.lo) + math.Abs(a.hi))}
 	if k == 0 {
 		g.line = true
 		return g
@@ -132,7 +177,12 @@ func (f *frame) circleDev(t float64, g *arcGeom) float64 {
 	}
 	sq := math.Sqrt(disc)
 	l1 := -cc / (b + math.Copysign(sq, b)) // nearest zero
-	l2 := -b - math.Copysign(sq, b)        // the other crossing
+	if g.r > g.wide {
+		// A circle far larger than the zone meets the normal once near
+		// the curve: that crossing is on the arc.
+		return l1
+	}
+	l2 := -b - math.Copysign(sq, b) // the other crossing
 	slack := 1e-9
 	if g.angle(w.addScaled(n, l1)) <= g.sweep+slack {
 		return l1
@@ -146,15 +196,17 @@ func (f *frame) circleDev(t float64, g *arcGeom) float64 {
 // devRange returns the extremes of the deviation of the arc g over feet
 // in [t0, t1], given the deviations d0 and d1 at the ends.
 //
-// The number of samples follows from the curvature: along the arc the
-// deviation δ has δ” ≈ κ − k (κ the curve's, k the arc's), so between
-// samples h apart in arc length a missed extreme is at most |κ − k|·h²/8.
-// Samples are placed so that this is below devMiss of the zone's
-// half-width (between arcSamples and maxSamples of them). Uniform steps in
-// the parameter t crowd the flat stretches of a flat ellipse and starve its
-// tips, and uniform steps in the normal angle do the opposite, so both
-// grids are used and merged in order; the extremes are then refined by a
-// parabola through the neighbours.
+// The number of samples follows from the curve: along the arc the
+// deviation δ has δ″ ≈ κ − k (κ the curve's, k the arc's) and δ‴ ≈ κ′.
+// A parabola through the three samples around an extreme takes out the
+// quadratic part, so with samples h apart in arc length the refined
+// extreme misses by about |κ′|·h³/24; h is chosen so that this is below
+// devMiss of the zone's half-width, and so that the unrefined miss
+// |κ − k|·h²/8 stays below a quarter of the half-width (the parabola then
+// starts from the right neighbourhood). Uniform steps in the parameter
+// t crowd the flat stretches of a flat ellipse and starve its tips, and
+// uniform steps in the normal angle do the opposite, so half the samples
+// come from each grid, merged in order.
 func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi float64) {
 	f := &a.f
 	k := 0.0
@@ -166,21 +218,26 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi floa
 	// The arc's points sit on the curve's normals up to the zone's edge,
 	// where a step along the curve covers (1 + |edge|·κ) times the length.
 	edge := math.Max(math.Abs(a.lo), math.Abs(a.hi))
-	c, err := f.e.Parallel(f.d + edge)
-	length := math.Abs(f.e.ArcLength(t0, t1)) * (1 + f.d*kmax + edge*kmax)
-	if err == nil {
+	length := math.Abs(f.e.ArcLength(t0, t1)) * (1 + (f.d+edge)*kmax)
+	if c, err := f.e.Parallel(f.d + edge); err == nil {
 		length = math.Abs(c.ArcLength(t0, t1))
 	}
-	half := 0.5 * (a.hi - a.lo)
-	n := arcSamples
+	// |κ′| over the interval, bounded from the curvature change over it.
+	dk := 4 * (kmax - kmin) / math.Max(length, 1e-300)
+	miss := devMiss * 0.5 * (a.hi - a.lo)
+	h := math.Inf(1)
+	if dk > 0 {
+		h = math.Cbrt(24 * miss / dk)
+	}
 	if dd > 0 {
-		h := math.Sqrt(8 * devMiss * half / dd)
-		if x := length / h; x > float64(n) {
-			n = int(math.Min(x+1, maxSamples))
-		}
+		h = math.Min(h, math.Sqrt(8*0.25*0.5*(a.hi-a.lo)/dd))
+	}
+	n := arcSamples
+	if x := 2 * length / h; x > float64(n) {
+		n = int(math.Min(x+1, maxSamples))
 	}
 	var ts, v [2*maxSamples + 2]float64
-	m := f.mergedGrid(t0, t1, n, ts[:0])
+	m := f.mergedGrid(t0, t1, n/2, ts[:0])
 	lo, hi = math.Min(d0, d1), math.Max(d0, d1)
 	v[0], v[m-1] = d0, d1
 	for j := 1; j < m-1; j++ {
@@ -257,16 +314,26 @@ func (f *frame) mergedGrid(t0, t1 float64, n int, dst []float64) int {
 			haveN = true
 		}
 		tt := t0 + float64(i)*ht
+		var x float64
 		if j > n || (i <= n && (tt < nt) == up) {
-			dst = append(dst, tt)
+			x = tt
 			i++
 		} else {
-			if (nt-t0)*(t1-nt) > 0 {
-				dst = append(dst, nt)
-			}
+			x = nt
 			j++
 			haveN = false
+			if (nt-t0)*(t1-nt) <= 0 {
+				continue
+			}
 		}
+		// Skip a sample crowding the last one (the two grids coincide on
+		// a circle): the parabola through near-equal positions is noise.
+		if math.Abs(x-dst[len(dst)-1]) > 0.25*math.Abs(ht) || len(dst) == 1 && math.Abs(x-t0) > 1e-3*math.Abs(ht) {
+			dst = append(dst, x)
+		}
+	}
+	if math.Abs(t1-dst[len(dst)-1]) < 0.25*math.Abs(ht) && len(dst) > 1 {
+		dst = dst[:len(dst)-1]
 	}
 	dst = append(dst, t1)
 	return len(dst)
@@ -325,34 +392,40 @@ type trial struct {
 
 // try builds and measures the step to foot parameter t1.
 func (a *Approximator) try(s *arcState, t1 float64) trial {
+	// End deviation by the deadbeat rule (see endDeviation).
+	tr, _, _ := a.tryEnd(s, t1, a.endDeviation(s, t1))
+	return tr
+}
+
+// tryEnd builds and measures the step to foot parameter t1 ending at
+// deviation e1.
+func (a *Approximator) tryEnd(s *arcState, t1, e1 float64) (trial, float64, float64) {
 	f := &a.f
 	m := a.mid()
-	// End deviation by the deadbeat rule (see endDeviation).
-	e1 := a.endDeviation(s, t1)
 	q, _, n := f.at(t1, f.d+e1)
 	k, end := arcTo(s.p, s.tan, q)
 	tr := trial{k: k, end: end, q: q, dev1: e1, t1: t1}
 	chord := q.sub(s.p).norm()
-	if k == 0 || math.Abs(1/k) > arcMaxRadius*f.e.SemiMajor() || chord*chord*math.Abs(k)/8 < a.round {
+	if k == 0 || math.Abs(1/k) > arcMaxRadius*(f.e.MaxRadiusOfCurvature()+math.Abs(f.d)) || chord*chord*math.Abs(k)/8 < a.round {
 		// Too flat to write as an arc: a line along the tangent to the
 		// normal at t1 (solve p + u·tan = q + λ·n).
 		den := s.tan.cross(n)
 		if den == 0 {
 			tr.ratio = math.Inf(1)
-			return tr
+			return tr, 0, 0
 		}
 		lam := s.tan.cross(s.p.sub(q)) / den
 		q = q.addScaled(n, lam)
 		tr = trial{k: 0, end: s.tan, q: q, dev1: e1 + lam, t1: t1, isLine: true}
 		if q.sub(s.p).dot(s.tan) <= 0 {
 			tr.ratio = math.Inf(1)
-			return tr
+			return tr, 0, 0
 		}
 	}
-	g := newArcGeom(s.p, s.tan, tr.k, tr.q)
+	g := a.newArcGeom(s.p, s.tan, tr.k, tr.q)
 	lo, hi := a.devRange(s.tp, t1, s.dev, tr.dev1, &g)
 	tr.ratio = math.Max((hi-m)/(a.hi-m), (m-lo)/(m-a.lo))
-	return tr
+	return tr, lo, hi
 }
 
 // segment returns the arc or line of a trial from the current state.
@@ -366,6 +439,13 @@ func (s *arcState) segment(tr trial) Segment {
 }
 
 func (s *arcState) next(a *Approximator) (Segment, bool) {
+	if s.full {
+		if s.closing {
+			return Segment{}, false
+		}
+		s.closing, s.n = true, 0
+		return s.circle, true
+	}
 	if s.closing {
 		return s.nextClosing(a)
 	}
@@ -381,9 +461,13 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 		dt = l / f.speed(s.tp, f.d)
 	}
 	dt = math.Min(dt, math.Pi)
-	// Near the end, close with biarcs if a few will do.
-	if remaining <= 2.5*dt {
+	// Near the end, close with one biarc when it fits; when little is
+	// left, with the fewest biarcs that fit.
+	if remaining <= 3*dt {
 		for n := 1; n <= 4; n++ {
+			if n > 1 && remaining > 0.8*dt {
+				break
+			}
 			if s.closeFits(a, n) {
 				s.closing, s.n, s.i, s.half = true, n, 0, false
 				s.t0End = s.tp
@@ -394,12 +478,13 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	var best trial
 	best.ratio = math.Inf(1)
 	bestDt := 0.0
-	// A step never reaches the end: the end is the closing biarcs' job.
-	maxDt := 0.5 * remaining
+	// A step never reaches the end, which is the closing biarcs' job, and
+	// leaves them about one step.
+	maxDt := math.Max(0.5*remaining, remaining-dt)
 	for i := 0; i < arcMaxSteps; i++ {
 		dt = math.Min(dt, maxDt)
 		tr := a.try(s, s.tp+a.sigma*dt)
-		if tr.ratio <= 1 && dt > bestDt {
+		if tr.ratio <= arcLimit && dt > bestDt {
 			best, bestDt = tr, dt
 			if tr.ratio >= arcAccept || dt >= maxDt {
 				break
@@ -427,7 +512,7 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	for bestDt == 0 {
 		dt *= 0.5
 		tr := a.try(s, s.tp+a.sigma*dt)
-		if tr.ratio <= 1 || dt < 1e-12 {
+		if tr.ratio <= arcLimit || dt < 1e-12 {
 			best, bestDt = tr, dt
 		}
 	}
@@ -452,7 +537,7 @@ func (a *Approximator) endDeviation(s *arcState, t1 float64) float64 {
 	_, tc, n := f.at(s.tp, f.d)
 	tau := tc.scale(a.sigma)
 	slope := s.tan.dot(n) / math.Max(s.tan.dot(tau), 1e-3)
-	ke, dke := f.ellipseCurvature(s.tp)
+	ke, dke := f.ellipseCurvature(0.5 * (s.tp + t1))
 	g1 := 1 + f.d*ke
 	kp := a.sigma * dke / (g1 * g1 * g1)
 	l := math.Abs(t1-s.tp) * f.speed(s.tp, f.d)
@@ -476,12 +561,12 @@ func (s *arcState) closeFits(a *Approximator, n int) bool {
 			return false
 		}
 		devJ := a.f.e.SignedDistance(ptOf(j)) - a.f.d
-		g1 := newArcGeom(p, tg, a1, j)
+		g1 := a.newArcGeom(p, tg, a1, j)
 		lo1, hi1 := a.devRange(tp, tj, dev, devJ, &g1)
 		_, jt := arcEndTangent(p, tg, a1, j)
-		g2 := newArcGeom(j, jt, a2, q)
+		g2 := a.newArcGeom(j, jt, a2, q)
 		lo2, hi2 := a.devRange(tj, t1, devJ, a.mid(), &g2)
-		if math.Min(lo1, lo2) < a.lo || math.Max(hi1, hi2) > a.hi {
+		if m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo); math.Min(lo1, lo2) < m-w || math.Max(hi1, hi2) > m+w {
 			return false
 		}
 		p, tg, tp, dev = q, tq, t1, a.mid()

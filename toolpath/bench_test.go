@@ -1,0 +1,67 @@
+package toolpath
+
+import (
+	"testing"
+
+	"github.com/focitools/foci/ellipse"
+)
+
+// benchSpecs are the shapes the approximation benchmarks run on: an
+// ordinary tabletop, a flat gasket and a nearly round mirror, in mm.
+func benchSpec(b *testing.B, w, h, tol float64, g Geometry) Spec {
+	e, err := ellipse.FromSize(w, h, ellipse.Point{X: 10, Y: 20}, 0.3)
+	if err != nil {
+		b.Fatal(err)
+	}
+	return Spec{Curve: e.Curve(), Zone: Band, Tol: tol, Geometry: g}
+}
+
+// BenchmarkApproximate reports ns per segment, segments per second, the
+// ratio of the count to the lower bound N*, and (in the same run) the
+// cost of one arc-length evaluation for comparison.
+func BenchmarkApproximate(b *testing.B) {
+	for _, c := range []struct {
+		name      string
+		w, h, tol float64
+		g         Geometry
+	}{
+		{"lines/600x400/0.01", 600, 400, 0.01, Lines},
+		{"arcs/600x400/0.01", 600, 400, 0.01, Arcs},
+		{"lines/600x60/0.001", 600, 60, 0.001, Lines},
+		{"arcs/600x60/0.001", 600, 60, 0.001, Arcs},
+		{"lines/600x400/1e-5", 600, 400, 1e-5, Lines},
+		{"arcs/600x400/1e-5", 600, 400, 1e-5, Arcs},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			s := benchSpec(b, c.w, c.h, c.tol, c.g)
+			var a Approximator
+			segs := 0
+			b.ReportAllocs()
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				if err := a.Reset(s); err != nil {
+					b.Fatal(err)
+				}
+				for _, ok := a.Next(); ok; _, ok = a.Next() {
+					segs++
+				}
+			}
+			b.StopTimer()
+			per := float64(b.Elapsed().Nanoseconds()) / float64(segs)
+			b.ReportMetric(per, "ns/segment")
+			b.ReportMetric(1e9/per, "segments/s")
+			n := float64(segs) / float64(b.N)
+			b.ReportMetric(n/a.EstimateSegments(), "N/N*")
+		})
+	}
+	b.Run("arclength-reference", func(b *testing.B) {
+		e, _ := ellipse.FromSize(600, 400, ellipse.Point{}, 0.3)
+		sum := 0.0
+		for i := 0; i < b.N; i++ {
+			sum += e.ArcLength(0.1+float64(i&255)*0.01, 2.5)
+		}
+		sink = sum
+	})
+}
+
+var sink float64
