@@ -76,7 +76,14 @@ type interval struct {
 func (g *geometry) coverage() {
 	cs := g.contours
 	if len(cs) == 0 {
-		g.c.add(Violation{RuleCoverage, 0, "no move at cutting depth follows the curve within the zone, so none of it is cut"})
+		depth := "a router cuts below Z0"
+		switch g.r.Machine {
+		case Laser:
+			depth = "a laser cuts with the beam on: M3 or M4 with S > 0"
+		case Plotter:
+			depth = "a plotter draws at or below Z0"
+		}
+		g.c.add(Violation{RuleCoverage, 0, "no move follows the curve at cutting depth (" + depth + "), so none of it is cut"})
 		return
 	}
 	// Spans in program order, joined while each move starts where the
