@@ -148,7 +148,17 @@ func (p *profilePlan) piece(dst Path, a, b, za, zb float64, role Role) (Path, er
 	if err != nil {
 		return dst[:n0], err
 	}
+	if len(dst) == n0 {
+		return dst, nil
+	}
+	// A closed loop ends where it starts: if joining moves its start, its
+	// end moves with it (a one-arc full circle must stay one).
+	start := dst[n0].Start
+	closed := !spec.Open && dst[len(dst)-1].End == start
 	dst = joinAt(dst, n0)
+	if closed && dst[n0].Start != start {
+		dst[len(dst)-1].End = dst[n0].Start
+	}
 	for i := n0; i < len(dst); i++ {
 		dst[i].Role = role
 	}
