@@ -12,11 +12,12 @@ import "math"
 // parameter of the largest Bernstein ellipse free of singularities: the
 // bound is (64/15)·M·ρ^(−2n)/(ρ² − 1), M the largest |speed| inside it
 // (Trefethen, "Is Gauss quadrature better than Clenshaw–Curtis?", SIAM
-// Review 50 (2008); the constant quoted from memory). With n = 8 and h ≤ D/8, ρ ≥ 16 and
-// ρ^(−16) < 1e-19. Arcs up to D/4 long (and at most 1 radian) are
-// therefore integrated directly; beyond that the difference of L loses at
-// most a few ulps of the arc, because both ends then lie within a few arc
-// lengths of each other on the scale where L changes.
+// Review 50 (2008); the constant quoted from memory). With n = 8 and
+// h ≤ D/8, ρ ≥ 16 and ρ^(−16) < 1e-19. Arcs up to D/4 long (and at most 1
+// radian) are therefore integrated directly; beyond that the difference
+// of L loses at most a few ulps of the arc, because the arc is then long
+// against the scale on which L changes. The tests check both methods
+// against each other around the switch and against mpmath.
 
 // Nodes ±glX and weights glW of the 8-point Gauss–Legendre rule on
 // [−1, 1] (Abramowitz and Stegun, Table 25.4; these digits recomputed as
@@ -34,8 +35,8 @@ const (
 
 // quadSpan returns the longest parameter span integrated directly around
 // the reduced midpoint rm (internal frame): min(1, D/4) with D the
-// distance from rm to the nearest branch point of the speed. It is +Inf's
-// cap, 1, for a circle.
+// distance from rm to the nearest branch point of the speed (1 for a
+// circle, whose speed is constant).
 func (e Ellipse) quadSpan(rm float64) float64 {
 	if rm > math.Pi/2 {
 		rm -= math.Pi
