@@ -84,24 +84,33 @@ type ProfileSpec struct {
 // radius r (Tool/2, or Kerf/2 for a laser) on the waste side, approximated
 // within Tol in the zone that keeps it off the part: [Outside] of the
 // outward parallel curve for SideOutside, [Inside] of the inward one for
-// SideInside, and the [Band] about the ellipse for SideOn. So every
-// cutting point lies at least r from the part.
+// SideInside, and the [Band] about the ellipse for SideOn. So for
+// SideOutside and SideInside every cutting point, leads and links
+// included, lies at least r from the part, on the waste side.
 //
 // # Router
 //
-// The path starts at SafeZ above the entry point (the start of the lead-in
-// arc, or the contour's entry point when there is no lead). There are n
-// passes of equal step depth/n (see [DepthPasses]), the last exactly at
-// −Depth. Without a ramp each pass feeds straight down at the entry point
-// (a Cut line with Role [Plunge]), runs the lead-in arc, the whole loop of
-// the contour, the lead-out arc, and a straight [Link] back to the entry
-// point through the waste, where the next pass plunges. With a ramp, the
-// tool feeds down to Z0 at the entry point, runs the lead-in at Z0 and
-// then descends continuously: each pass ramps down from the level above
-// along the contour (Role [Ramp]) and completes a whole loop at its level
-// from the end of the ramp, so the next ramp starts where the loop ended;
-// the lead-out leaves from the end of the last loop. The path ends with a
-// Travel line straight up to SafeZ (Role [Retract]).
+// The path starts with a Travel line at SafeZ to above the entry point
+// (the start of the lead-in arc, or the contour's entry point when there
+// is no lead); on an empty dst it starts where it ends, since the
+// machine's position before is unknown. There are n passes of equal step
+// depth/n (see [DepthPasses]), the last exactly at −Depth.
+//
+// Without a ramp each pass feeds straight down at the entry point (a Cut
+// line with Role [Plunge]), runs the lead-in arc, the whole loop of the
+// contour and the lead-out arc, then a straight Cut line (Role [Link])
+// through the waste back to the start of the lead-in, where the next pass
+// plunges; with no leads the next pass plunges where the loop closed.
+//
+// With a ramp the tool feeds down to Z0 at the entry point, runs the
+// lead-in (if any) at Z0, and then descends continuously: each pass ramps
+// down from the level above along the contour (Role [Ramp]) and completes
+// a whole loop at its level from the end of the ramp, so the next ramp
+// starts where the loop ended; the lead-out leaves from the end of the
+// last loop.
+//
+// Either way the path ends with a Travel line straight up to SafeZ (Role
+// [Retract]).
 //
 // Tabs are centred at the odd points of the equal arc-length division of
 // the tool-centre curve into 2·Tabs parts ([ellipse.NewDivider], which
@@ -129,6 +138,16 @@ type ProfileSpec struct {
 // The pen travels at PenUp to the entry point, is lowered to PenDown by a
 // Cut line (Role Plunge), draws the lead-in, the loop and the lead-out at
 // PenDown, and is lifted to PenUp by a Travel line (Role Retract).
+//
+// # Refusals
+//
+// Besides fields out of range or not used by the machine: an inside cut
+// with a tool (or kerf) of at least [MaxInsideTool], 2·(b²/a − Tol);
+// tabs at least as tall as the depth, or so wide for their number that
+// they would meet (the limit is the widest TabWidth); an explicit lead
+// radius that does not fit an inside cut (b²/a − r − Tol) or is below
+// Tol; a ramp longer than one turn; a band (SideOn) reaching past b²/a;
+// and a path that would pass [MaxSegments].
 func Profile(dst Path, s ProfileSpec) (Path, error) {
 	p, err := s.plan()
 	if err != nil {
