@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/focitools/foci/ellipse"
+	"github.com/google/go-cmp/cmp"
 	"pgregory.net/rapid"
 )
 
@@ -251,4 +252,82 @@ func TestSegmentCountsNearTheLowerBound(t *testing.T) {
 			t.Fatalf("%v %v tol %g: %d segments, N* = %.2f, limit %.2f", s.Geometry, s.Zone, s.Tol, len(p), nstar, limit)
 		}
 	})
+}
+
+func TestApproximationIsDeterministicAndResettable(t *testing.T) {
+	e, err := ellipse.FromSize(640, 440, ellipse.Point{X: 5, Y: -3}, 0.4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, _ := e.Parallel(3)
+	for _, g := range []Geometry{Lines, Arcs} {
+		s := Spec{Curve: c, Zone: Outside, Tol: 0.02, Geometry: g, From: 1.2}
+		first, err := Approximate(nil, s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		// A reused Approximator after another spec gives the same path.
+		var a Approximator
+		if err := a.Reset(Spec{Curve: e.Curve(), Zone: Band, Tol: 0.5, Geometry: Arcs}); err != nil {
+			t.Fatal(err)
+		}
+		for _, ok := a.Next(); ok; _, ok = a.Next() {
+		}
+		if err := a.Reset(s); err != nil {
+			t.Fatal(err)
+		}
+		var second Path
+		for seg, ok := a.Next(); ok; seg, ok = a.Next() {
+			second = append(second, seg)
+		}
+		if d := cmp.Diff(first, second); d != "" {
+			t.Errorf("%v: second run differs (-first +second):\n%s", g, d)
+		}
+	}
+}
+
+func TestApproximatorAllocatesNothingPerSegment(t *testing.T) {
+	e, _ := ellipse.FromSize(600, 400, ellipse.Point{}, 0.2)
+	for _, g := range []Geometry{Lines, Arcs} {
+		s := Spec{Curve: e.Curve(), Zone: Band, Tol: 0.001, Geometry: g}
+		var a Approximator
+		allocs := testing.AllocsPerRun(5, func() {
+			if err := a.Reset(s); err != nil {
+				t.Fatal(err)
+			}
+			for _, ok := a.Next(); ok; _, ok = a.Next() {
+			}
+		})
+		if allocs != 0 {
+			t.Errorf("%v: %v allocations per run, want 0", g, allocs)
+		}
+	}
+}
+
+func TestBadSpecsAreRefusedNamingTheField(t *testing.T) {
+	e, _ := ellipse.FromSize(600, 400, ellipse.Point{}, 0)
+	thin, _ := ellipse.FromSize(600, 20, ellipse.Point{}, 0) // b²/a = 0.333…
+	for _, c := range []struct {
+		name  string
+		s     Spec
+		field string
+		err   error
+	}{
+		{"zero tol", Spec{Curve: e.Curve()}, "Tol", ErrTolerance},
+		{"negative tol", Spec{Curve: e.Curve(), Tol: -1}, "Tol", ErrTolerance},
+		{"NaN tol", Spec{Curve: e.Curve(), Tol: math.NaN()}, "Tol", ErrTolerance},
+		{"infinite tol", Spec{Curve: e.Curve(), Tol: math.Inf(1)}, "Tol", ErrTolerance},
+		{"too fine", Spec{Curve: e.Curve(), Tol: 1e-12, Decimals: -1}, "Tol", ErrTooFine},
+		{"decimals", Spec{Curve: e.Curve(), Tol: 0.001, Decimals: 3}, "Decimals", ErrDecimals},
+		{"zero curve", Spec{Tol: 1}, "Curve", ErrInvalid},
+		{"band past the fold", Spec{Curve: thin.Curve(), Tol: 0.5}, "Curve", ErrOffset},
+		{"empty open arc", Spec{Curve: e.Curve(), Tol: 1, Open: true, From: 1, To: 1}, "From", ErrRange},
+		{"more than a turn", Spec{Curve: e.Curve(), Tol: 1, Open: true, To: 7}, "From", ErrRange},
+	} {
+		_, err := NewApproximator(c.s)
+		var se *SpecError
+		if !errors.As(err, &se) || !errors.Is(err, c.err) || se.Field != c.field {
+			t.Errorf("%s: got %v, want a *SpecError on %s wrapping %v", c.name, err, c.field, c.err)
+		}
+	}
 }
