@@ -37,7 +37,7 @@ func (r *recordTB) run(check func(opsTB)) []string {
 // breaks, and stay quiet on the unbroken one.
 func TestProfileChecksCatchBrokenPaths(t *testing.T) {
 	e := opsShapes(t)["tray"]
-	spec := ProfileSpec{Setup: Setup{Machine: Router, Tol: 0.02, SafeZ: 5}, Ellipse: e,
+	spec := ProfileSpec{Setup: Setup{Machine: Router, Tol: 0.1, SafeZ: 5}, Ellipse: e,
 		Tool: 6, Depth: 12, StepDown: 4, Tabs: 4, TabWidth: 8, TabHeight: 5}
 	good, err := Profile(nil, spec)
 	if err != nil {

@@ -20,7 +20,7 @@ type opsTB interface {
 }
 
 // opsDeviation returns the least and greatest signed distance of segment
-// s from the curve c (+ outward): 32 even samples, then a golden-section
+// s from the curve c (+ outward): 16 even samples, then a golden-section
 // search around the extreme samples. For the smooth distance along a line
 // or an arc near a convex curve this finds the extremes to far better
 // than the slacks the checks allow.
@@ -30,7 +30,7 @@ func opsDeviation(c ellipse.Parallel, s Segment) (lo, hi float64) {
 		p := s.At(u)
 		return e.SignedDistance(ellipse.Point{X: p.X, Y: p.Y}) - c.Offset()
 	}
-	const n = 32
+	const n = 16
 	var v [n + 1]float64
 	jlo, jhi := 0, 0
 	for j := 0; j <= n; j++ {
@@ -46,7 +46,7 @@ func opsDeviation(c ellipse.Parallel, s Segment) (lo, hi float64) {
 		a := math.Max(0, float64(j-1)/n)
 		b := math.Min(1, float64(j+1)/n)
 		best := sign * v[j]
-		for i := 0; i < 30; i++ {
+		for i := 0; i < 24; i++ {
 			m1 := a + (b-a)*0.381966011250105
 			m2 := a + (b-a)*0.618033988749895
 			f1, f2 := sign*dev(m1), sign*dev(m2)

@@ -178,8 +178,10 @@ type profilePlan struct {
 	tabTop   float64 // Z of the top of the tabs
 	tabHalf  float64 // half the raised length of a tab
 	tabs     []float64
-	widthCut float64 // the diameter of what cuts: tool, kerf or pen
-	scratch  []float64
+	widthCut float64   // the diameter of what cuts: tool, kerf or pen
+	scratch  []float64 // breakpoints of a walk
+	buf      Path      // the contour of a pass, before the leads go round it
+	loopSize int       // a generous estimate of the segments of one loop
 }
 
 // plan validates s and derives the plan.

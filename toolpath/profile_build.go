@@ -1,32 +1,23 @@
 package toolpath
 
+// Each builder first walks the contour of a pass into the plan's buffer,
+// then appends to the path the moves that reach its first point (travel,
+// plunge, lead-in), the buffered contour, and the moves that leave its
+// last point, so that the leads meet the contour exactly where its
+// approximation starts and ends.
+
 // build appends the whole profile path to dst.
 func (p *profilePlan) build(dst Path) (Path, error) {
-	entry, err := p.pointAt(0)
-	if err != nil {
-		return dst, err
-	}
-	start := entry
-	if p.lead > 0 {
-		start, _ = p.leadGeometry(entry, p.param(0), true)
-	}
-	s := &p.s
-	dst = travelXY(dst, start.x, start.y, s.travelZ())
-	switch s.Machine {
+	switch p.s.Machine {
 	case Router:
 		if p.rampLen > 0 {
-			return p.buildRamped(dst, entry, start)
+			return p.buildRamped(dst)
 		}
-		return p.buildPlunged(dst, entry, start)
+		return p.buildPlunged(dst)
 	case Laser:
-		return p.buildLaser(dst, entry, start)
+		return p.buildLaser(dst)
 	}
-	dst = p.moveZ(dst, s.PenDown, Plunge)
-	dst, err = p.loopWithLeads(dst, entry, level{top: s.PenDown, bottom: s.PenDown})
-	if err != nil {
-		return dst, err
-	}
-	return travelZ(dst, s.PenUp, Retract), nil
+	return p.buildPlotter(dst)
 }
 
 // passZ returns the height of router pass k of p.passes (1-based): equal
@@ -38,87 +29,131 @@ func (p *profilePlan) passZ(k int) float64 {
 	return -float64(k) * p.step
 }
 
+// contour walks from u0 to u1 at the heights of lv into the plan's
+// buffer and returns it with its first point and the point the lead-in
+// (if any) starts from.
+func (p *profilePlan) contour(u1 float64, lv level) (Path, Point, vec, error) {
+	if p.buf == nil {
+		p.buf = make(Path, 0, p.loopSize)
+	}
+	buf, err := p.walk(p.buf[:0], u1, lv)
+	p.buf = buf
+	if err != nil {
+		return nil, Point{}, vec{}, err
+	}
+	if len(buf) == 0 {
+		return nil, Point{}, vec{}, &SpecError{Field: "Tol", Value: p.s.Tol, Err: ErrStalled}
+	}
+	first := buf[0].Start
+	start := vec{first.X, first.Y}
+	if p.lead > 0 {
+		start, _ = p.leadGeometry(start, p.param(lv.u0), true)
+	}
+	return buf, first, start, nil
+}
+
+// enter appends the lead-in from the end of dst to first (if there is a
+// lead), and the contour.
+func (p *profilePlan) enter(dst Path, first Point, u0 float64, buf Path) Path {
+	if p.lead > 0 {
+		dst = append(dst, p.leadArc(dst[len(dst)-1].End, vec{first.X, first.Y}, p.param(u0), true))
+	}
+	return appendJoined(dst, buf)
+}
+
+// leave appends the lead-out from the end of dst, the contour having
+// ended at walk position u1.
+func (p *profilePlan) leave(dst Path, u1 float64) Path {
+	if p.lead == 0 {
+		return dst
+	}
+	at := dst[len(dst)-1].End
+	return append(dst, p.leadArc(at, vec{at.X, at.Y}, p.param(u1), false))
+}
+
 // buildPlunged: each pass plunges at the start (of the lead-in), runs the
 // lead-in, the loop and the lead-out, and links back through the waste.
-func (p *profilePlan) buildPlunged(dst Path, entry, start vec) (Path, error) {
-	var err error
+func (p *profilePlan) buildPlunged(dst Path) (Path, error) {
 	for k := 1; k <= p.passes; k++ {
 		z := p.passZ(k)
-		lv := level{top: z, bottom: z}
-		// Where the walk starts, raised over a tab if the entry is on one.
-		zw := z
-		if p.inTab(0) && z < p.tabTop {
-			zw = p.tabTop
-		}
-		dst = p.moveZ(dst, zw, Plunge)
-		if dst, err = p.loopWithLeads(dst, entry, lv); err != nil {
+		buf, first, start, err := p.contour(p.length, level{top: z, bottom: z})
+		if err != nil {
 			return dst, err
 		}
-		if k < p.passes && p.lead > 0 {
+		if k == 1 {
+			dst = travelXY(dst, start.x, start.y, p.s.SafeZ)
+		} else if p.lead > 0 {
 			at := dst[len(dst)-1].End
 			dst = append(dst, Segment{Kind: Line, Motion: Cut, Role: Link, Start: at, End: Point{start.x, start.y, at.Z}})
 		}
+		// The walk starts raised if the entry lies on a tab.
+		dst = p.moveZ(dst, first.Z, Plunge)
+		dst = p.enter(dst, first, 0, buf)
+		dst = p.leave(dst, p.length)
 	}
 	return travelZ(dst, p.s.SafeZ, Retract), nil
 }
 
 // buildRamped: feed down to Z0, lead in, then every pass ramps down from
 // the level above and completes a loop at its own level.
-func (p *profilePlan) buildRamped(dst Path, entry, start vec) (Path, error) {
-	dst = p.moveZ(dst, 0, Plunge)
-	if p.lead > 0 {
-		dst = append(dst, p.leadArc(dst[len(dst)-1].End, entry, p.param(0), true))
-	}
+func (p *profilePlan) buildRamped(dst Path) (Path, error) {
+	buf := make(Path, 0, p.loopSize*p.passes)
 	u, top := 0.0, 0.0
-	var err error
 	for k := 1; k <= p.passes; k++ {
 		z := p.passZ(k)
 		end := u + p.rampLen + p.length
-		if dst, err = p.walk(dst, end, level{u0: u, top: top, bottom: z, ramp: p.rampLen}); err != nil {
+		var err error
+		if buf, err = p.walk(buf, end, level{u0: u, top: top, bottom: z, ramp: p.rampLen}); err != nil {
 			return dst, err
 		}
 		u, top = end, z
 	}
-	if p.lead > 0 {
-		at := dst[len(dst)-1].End
-		dst = append(dst, p.leadArc(at, vec{at.X, at.Y}, p.param(u), false))
+	p.buf = buf
+	if len(buf) == 0 {
+		return dst, &SpecError{Field: "Tol", Value: p.s.Tol, Err: ErrStalled}
 	}
+	first := buf[0].Start
+	start := vec{first.X, first.Y}
+	if p.lead > 0 {
+		start, _ = p.leadGeometry(start, p.param(0), true)
+	}
+	dst = travelXY(dst, start.x, start.y, p.s.SafeZ)
+	dst = p.moveZ(dst, first.Z, Plunge)
+	dst = p.enter(dst, first, 0, buf)
+	dst = p.leave(dst, u)
 	return travelZ(dst, p.s.SafeZ, Retract), nil
 }
 
 // buildLaser: passes at FocusZ, each with its leads; a Travel move back
 // to the start of the lead-in between passes.
-func (p *profilePlan) buildLaser(dst Path, entry, start vec) (Path, error) {
+func (p *profilePlan) buildLaser(dst Path) (Path, error) {
 	fz := p.s.FocusZ
-	var err error
+	buf, first, start, err := p.contour(p.length, level{top: fz, bottom: fz})
+	if err != nil {
+		return dst, err
+	}
 	for k := 1; k <= p.passes; k++ {
-		if k > 1 && p.lead > 0 {
+		if k == 1 || p.lead > 0 {
 			dst = travelXY(dst, start.x, start.y, fz)
 		}
-		if dst, err = p.loopWithLeads(dst, entry, level{top: fz, bottom: fz}); err != nil {
-			return dst, err
-		}
+		dst = p.enter(dst, first, 0, buf)
+		dst = p.leave(dst, p.length)
 	}
 	return dst, nil
 }
 
-// loopWithLeads appends the lead-in (if any) from the end of dst, one
-// whole loop at the heights of lv, and the lead-out.
-func (p *profilePlan) loopWithLeads(dst Path, entry vec, lv level) (Path, error) {
-	t0 := p.param(0)
-	if p.lead > 0 {
-		at := dst[len(dst)-1].End
-		dst = append(dst, p.leadArc(at, entry, t0, true))
-	}
-	dst, err := p.walk(dst, p.length, lv)
+// buildPlotter: pen down at the start, lead-in, loop, lead-out, pen up.
+func (p *profilePlan) buildPlotter(dst Path) (Path, error) {
+	s := &p.s
+	buf, first, start, err := p.contour(p.length, level{top: s.PenDown, bottom: s.PenDown})
 	if err != nil {
 		return dst, err
 	}
-	if p.lead > 0 {
-		at := dst[len(dst)-1].End
-		dst = append(dst, p.leadArc(at, vec{at.X, at.Y}, p.param(p.length), false))
-	}
-	return dst, nil
+	dst = travelXY(dst, start.x, start.y, s.PenUp)
+	dst = p.moveZ(dst, s.PenDown, Plunge)
+	dst = p.enter(dst, first, 0, buf)
+	dst = p.leave(dst, p.length)
+	return travelZ(dst, s.PenUp, Retract), nil
 }
 
 // leadGeometry returns, for the contour point q at parameter t, the far

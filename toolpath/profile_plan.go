@@ -180,6 +180,7 @@ func (p *profilePlan) planTabs() error {
 func (p *profilePlan) checkSize() error {
 	s := &p.s
 	loop := 2*LowerBound(p.curve, s.Geometry, p.zone, s.Tol, 0, 0) + 8*float64(len(p.tabs)) + 8
+	p.loopSize = int(loop)
 	if total := loop * float64(p.passes); total > MaxSegments {
 		most := math.Max(1, math.Floor(MaxSegments/loop))
 		if s.Machine == Laser {

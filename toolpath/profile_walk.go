@@ -131,33 +131,33 @@ func (p *profilePlan) walk(dst Path, u1 float64, lv level) (Path, error) {
 
 // piece appends the approximation of the walk from a to b, its height
 // going linearly (by length) from za to zb, after a straight move in Z to
-// za if the path is not there.
+// za if the path is not there. Every piece is approximated as open arcs of
+// at most half a turn, whose ends lie at the parameters of a and b, so
+// that pieces meeting at one position join exactly.
 func (p *profilePlan) piece(dst Path, a, b, za, zb float64, role Role) (Path, error) {
 	if n := len(dst); n > 0 && dst[n-1].End.Z != za {
 		dst = p.moveZ(dst, za, Tab)
 	}
-	spec := Spec{Curve: p.curve, Zone: p.zone, Tol: p.s.Tol, Geometry: p.s.Geometry, Decimals: p.s.Decimals,
-		From: p.param(a), Z: za}
-	if b-a >= p.length*(1-1e-12) {
-		spec.Clockwise = p.cw
-	} else {
-		spec.Open, spec.To = true, p.param(b)
-	}
 	n0 := len(dst)
-	dst, err := Approximate(dst, spec)
-	if err != nil {
-		return dst[:n0], err
+	halves := 1
+	if b-a > p.length/2 {
+		halves = 2
 	}
-	if len(dst) == n0 {
-		return dst, nil
-	}
-	// A closed loop ends where it starts: if joining moves its start, its
-	// end moves with it (a one-arc full circle must stay one).
-	start := dst[n0].Start
-	closed := !spec.Open && dst[len(dst)-1].End == start
-	dst = joinAt(dst, n0)
-	if closed && dst[n0].Start != start {
-		dst[len(dst)-1].End = dst[n0].Start
+	from := p.param(a)
+	for h := 1; h <= halves; h++ {
+		to := p.param(b)
+		if h < halves {
+			to = p.param(0.5 * (a + b))
+		}
+		spec := Spec{Curve: p.curve, Zone: p.zone, Tol: p.s.Tol, Geometry: p.s.Geometry, Decimals: p.s.Decimals,
+			From: from, Open: true, To: to, Z: za}
+		n1 := len(dst)
+		var err error
+		if dst, err = Approximate(dst, spec); err != nil {
+			return dst[:n0], err
+		}
+		dst = joinAt(dst, n1)
+		from = to
 	}
 	for i := n0; i < len(dst); i++ {
 		dst[i].Role = role
@@ -169,7 +169,8 @@ func (p *profilePlan) piece(dst Path, a, b, za, zb float64, role Role) (Path, er
 }
 
 // joinAt makes dst[i] start exactly where dst[i−1] ends: a gap of
-// rounding size is closed by moving the start, a larger one by a Cut line.
+// rounding size is closed by moving the start, a larger one (which the
+// approximation's exact ends should never leave) by a Cut line.
 func joinAt(dst Path, i int) Path {
 	if i == 0 || i >= len(dst) {
 		return dst
@@ -246,15 +247,9 @@ func travelXY(dst Path, x, y, z float64) Path {
 	return append(dst, Segment{Kind: Line, Motion: Travel, Role: Link, Start: start, End: end})
 }
 
-// pointAt returns where the approximation of the walk starting at u
-// starts: on the parallel curve inside the zone at the parameter of u.
-func (p *profilePlan) pointAt(u float64) (vec, error) {
-	t := p.param(u)
-	a, err := NewApproximator(Spec{Curve: p.curve, Zone: p.zone, Tol: p.s.Tol, Geometry: p.s.Geometry,
-		Decimals: p.s.Decimals, From: t, Open: true, To: t + p.sigma()*0.25})
-	if err != nil {
-		return vec{}, err
-	}
-	s, _ := a.Next()
-	return vec{s.Start.X, s.Start.Y}, nil
+// appendJoined appends segs to dst, joining the first exactly to the end
+// of dst.
+func appendJoined(dst, segs Path) Path {
+	n := len(dst)
+	return joinAt(append(dst, segs...), n)
 }
