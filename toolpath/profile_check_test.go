@@ -143,6 +143,22 @@ func checkProfile(t opsTB, s ProfileSpec, p Path) {
 		t.Errorf("the contour goes %.6f times round for %d passes", laps, x.passes)
 	}
 
+	// Links: only those back to the start of the lead-in between router
+	// passes; any other would be a join the approximation left open.
+	links := 0
+	for _, g := range p {
+		if g.Role == Link && g.Motion == Cut {
+			links++
+		}
+	}
+	wantLinks := 0
+	if s.Machine == Router && s.RampAngle == 0 && s.RampLength == 0 && hasLeads(p) {
+		wantLinks = x.passes - 1
+	}
+	if links != wantLinks {
+		t.Errorf("%d cutting links, want %d", links, wantLinks)
+	}
+
 	checkLeads(t, s, &x, p)
 	switch s.Machine {
 	case Router:
@@ -346,4 +362,14 @@ func checkFinalCoverage(t opsTB, s ProfileSpec, x *expectProfile, p Path, z floa
 			t.Errorf("tabs %d and %d are %g apart along the path, want %g", i, i+1, gap, l/float64(s.Tabs))
 		}
 	}
+}
+
+// hasLeads reports whether p has lead arcs.
+func hasLeads(p Path) bool {
+	for _, g := range p {
+		if g.Role == LeadIn {
+			return true
+		}
+	}
+	return false
 }

@@ -156,11 +156,11 @@ func (p *profilePlan) piece(dst Path, a, b, za, zb float64, role Role) (Path, er
 		if dst, err = Approximate(dst, spec); err != nil {
 			return dst[:n0], err
 		}
+		for i := n1; i < len(dst); i++ {
+			dst[i].Role = role
+		}
 		dst = joinAt(dst, n1)
 		from = to
-	}
-	for i := n0; i < len(dst); i++ {
-		dst[i].Role = role
 	}
 	if za != zb {
 		slope(dst[n0:], za, zb)
