@@ -1,6 +1,7 @@
 package toolpath_test
 
 import (
+	"fmt"
 	"math"
 
 	"github.com/focitools/foci/ellipse"
@@ -334,6 +335,14 @@ func checkPocketFloor(t pocketTB, s toolpath.PocketSpec, p toolpath.Path, n int)
 		t.Errorf("pocket floor: %d of %d grid points are farther than the tool radius %g from every tool-centre position at the final depth, e.g. %v",
 			missed, sampled, s.Tool/2, first)
 	}
+	normals := n / 4
+	gaps, where, checked := pocketNormalGaps(s, p, normals)
+	if checked < normals/4 {
+		t.Errorf("pocket floor: only %d of %d normals reach the floor", checked, normals)
+	}
+	if gaps > 0 {
+		t.Errorf("pocket floor: %d of %d normals of the wall are not covered from Tol inside to the major axis, first %s", gaps, checked, where)
+	}
 }
 
 // pocketFloorGaps returns how many floor grid points are not covered, the
@@ -380,4 +389,152 @@ func pocketFloorGaps(s toolpath.PocketSpec, p toolpath.Path, n int) (missed int,
 		}
 	}
 	return missed, first, sampled
+}
+
+// pocketNormalGaps checks the floor along n inward normals of the wall,
+// exactly: on the normal at t, from Tol inside the wall to where it meets
+// the major axis (past which the points are nearer the other half of the
+// wall), the parts within the tool radius of each tool-centre move at the
+// final depth are found exactly (see pocketCover), and their union must
+// cover it. A normal is skipped where the tool cannot reach (as in
+// checkPocketFloor). Thin uncovered slivers, which run along the rings
+// and would slip between the points of a grid, cross the normals and are
+// found. It returns the normals that are not covered, the first gap, and
+// the normals checked.
+func pocketNormalGaps(s toolpath.PocketSpec, p toolpath.Path, n int) (missed int, gap string, checked int) {
+	e := s.Ellipse
+	r := s.Tool / 2
+	var segs []toolpath.Segment
+	for _, g := range p {
+		if g.Motion == toolpath.Cut && g.Start.Z == -s.Depth && g.End.Z == -s.Depth && pocketMovesXY(g) {
+			segs = append(segs, g)
+		}
+	}
+	minX, minY, maxX, maxY, ok := toolpath.Path(segs).Bounds()
+	if !ok {
+		return n, "no moves at the final depth", 0
+	}
+	cells := newPocketCells(segs, minX-r, minY-r, maxX+r, maxY+r, r, r)
+	stamp := make([]int, len(segs))
+	ctr := e.Center()
+	mx, my := math.Cos(e.MajorAngle()), math.Sin(e.MajorAngle())
+	slack := 1e-9 * e.SemiMajor()
+	var ivs [][2]float64
+	for i := 0; i < n; i++ {
+		t := 2 * math.Pi * (float64(i) + 0.5) / float64(n)
+		f, nr := e.PointAt(t), e.Normal(t)
+		nx, ny := -nr.X, -nr.Y // inward
+		reach := r + s.Tol
+		if e.SignedDistance(ellipse.Point{X: f.X + reach*nx, Y: f.Y + reach*ny}) > -reach+slack {
+			continue
+		}
+		// Where the normal meets the major axis: (f + u·N − c) × m = 0.
+		den := nx*my - ny*mx
+		if math.Abs(den) < 1e-12 {
+			continue
+		}
+		umax := ((ctr.X-f.X)*my - (ctr.Y-f.Y)*mx) / den
+		checked++
+		ivs = ivs[:0]
+		// Candidate moves: those indexed in the cells along the normal.
+		for u := 0.0; ; u += r / 2 {
+			u = math.Min(u, umax)
+			x, y := f.X+u*nx, f.Y+u*ny
+			for _, j := range cells.cells[cells.iy(y)*cells.nx+cells.ix(x)] {
+				if stamp[j] != i+1 {
+					stamp[j] = i + 1
+					ivs = pocketCover(ivs, f.X, f.Y, nx, ny, &segs[j], r*(1+1e-12))
+				}
+			}
+			if u >= umax {
+				break
+			}
+		}
+		// Is [Tol, umax] inside the union?
+		need := s.Tol
+		for changed := true; changed && need < umax-slack; {
+			changed = false
+			for _, v := range ivs {
+				if v[0] <= need+slack && v[1] > need {
+					need, changed = v[1], true
+				}
+			}
+		}
+		if need < umax-slack {
+			if missed == 0 {
+				q := ellipse.Point{X: f.X + need*nx, Y: f.Y + need*ny}
+				gap = fmt.Sprintf("on the normal at t = %.6f, %.6g inside the wall at %v (the normal meets the axis %.6g in)", t, need, q, umax)
+			}
+			missed++
+		}
+	}
+	return missed, gap, checked
+}
+
+// pocketCover appends to ivs the intervals of u for which the point
+// (px, py) + u·(nx, ny) (a unit direction) lies within rad of the move g.
+// The boundary of the points within rad of a line or an arc is made of
+// circles (round the ends, and for an arc round its centre at R ± rad)
+// and, for a line, the two lines at ±rad beside it; so whether a point of
+// the line is within rad changes only where it crosses one of these, and
+// between those crossings it is decided by the exact distance at the
+// middle (pocketPointSegment).
+func pocketCover(ivs [][2]float64, px, py, nx, ny float64, g *toolpath.Segment, rad float64) [][2]float64 {
+	var cuts [12]float64
+	k := 0
+	circle := func(cx, cy, rr float64) {
+		if rr < 0 {
+			return
+		}
+		wx, wy := px-cx, py-cy
+		bq := nx*wx + ny*wy
+		disc := bq*bq - (wx*wx + wy*wy - rr*rr)
+		if disc < 0 {
+			return
+		}
+		sq := math.Sqrt(disc)
+		cuts[k], cuts[k+1] = -bq-sq, -bq+sq
+		k += 2
+	}
+	circle(g.Start.X, g.Start.Y, rad)
+	circle(g.End.X, g.End.Y, rad)
+	if g.Kind == toolpath.Arc {
+		circle(g.CenterX, g.CenterY, g.Radius+rad)
+		circle(g.CenterX, g.CenterY, g.Radius-rad)
+	} else if dx, dy := g.End.X-g.Start.X, g.End.Y-g.Start.Y; dx != 0 || dy != 0 {
+		l := math.Hypot(dx, dy)
+		dx, dy = dx/l, dy/l
+		// (p + u n − a) × d = ±rad
+		c0 := (px-g.Start.X)*dy - (py-g.Start.Y)*dx
+		c1 := nx*dy - ny*dx
+		if c1 != 0 {
+			cuts[k], cuts[k+1] = (rad-c0)/c1, (-rad-c0)/c1
+			k += 2
+		}
+	}
+	if k == 0 {
+		return ivs
+	}
+	c := cuts[:k]
+	n0 := len(ivs)
+	for i := 1; i < len(c); i++ { // insertion sort: at most 8
+		for j := i; j > 0 && c[j] < c[j-1]; j-- {
+			c[j], c[j-1] = c[j-1], c[j]
+		}
+	}
+	for i := 0; i+1 < len(c); i++ {
+		a, b := c[i], c[i+1]
+		if b <= a {
+			continue
+		}
+		m := 0.5 * (a + b)
+		if pocketPointSegment(px+m*nx, py+m*ny, g) <= rad {
+			if n := len(ivs); n > n0 && ivs[n-1][1] >= a {
+				ivs[n-1][1] = math.Max(ivs[n-1][1], b)
+			} else {
+				ivs = append(ivs, [2]float64{a, b})
+			}
+		}
+	}
+	return ivs
 }
