@@ -93,8 +93,19 @@ const (
 // point moves continuously along the segment while it stays off the
 // medial axis, so the tracked root is the nearest one; a step that fails to
 // settle or jumps, a value that breaks the 1-Lipschitz bound of the
-// distance, or a point deep inside or far outside falls back to the exact
-// method.
+// distance, or a point deeper inside than half the reach falls back to the
+// exact method.
+//
+// The signed distance to a convex set is a convex function of the point,
+// with a kink only on the medial axis. Along a line the deviation is
+// therefore convex: its maximum is at an end (taken as sampled), and its
+// minimum lies between the neighbours of the smallest sample. Where a line
+// or arc crosses the medial axis, or passes deep inside a circle near its
+// centre, the deviation has a kink or a very sharp bend; that point is
+// sampled exactly as well, and the density bound holds on either side of
+// it. Only near the two ends of the medial axis, the cusps of the evolute
+// at depth b²/a behind the sharp ends, does the bound on f″ grow without
+// limit; there the sampling is capped at 4096 intervals.
 //
 // Arcs are taken as toolpath does in [toolpath.Segment.At]: centre, start
 // angle, Radius and [toolpath.Segment.Sweep] (a Radius that is not positive
@@ -156,8 +167,16 @@ func SegmentDeviation(curve ellipse.Parallel, s toolpath.Segment) (lo, hi float6
 		}
 		x.add(i, f, t)
 	}
-	hi = ev.refine(x.maxI, n, x.maxF, x.maxT, x.maxL, x.maxR, 1)
+	hi = x.maxF // a line's maximum is at an end: the deviation is convex
+	if ev.arc {
+		hi = ev.refine(x.maxI, n, x.maxF, x.maxT, x.maxL, x.maxR, 1)
+	}
 	lo = -ev.refine(x.minI, n, -x.minF, x.minT, -x.minL, -x.minR, -1)
+	us, k := ev.medialCrossings()
+	for _, u := range us[:k] {
+		f, _ := ev.exact(u)
+		lo, hi = math.Min(lo, f), math.Max(hi, f)
+	}
 	return lo, hi
 }
 
@@ -303,7 +322,7 @@ func (v *devEval) track(u, t0, du, fRef float64) (f, t float64) {
 			kv2 := v.rx * v.ry / speed // κ·|p′|²
 			if 0.5*kv2*math.Abs(1+sd*kv2/speed2)*step*step <= 1e-17*v.size {
 				f = sd - v.d
-				if sd > -0.5*v.reach && sd < v.size && math.Abs(f-fRef) <= du*v.length*(1+1e-9)+1e-13*v.size {
+				if sd > -0.5*v.reach && math.Abs(f-fRef) <= du*v.length*(1+1e-9)+1e-13*v.size {
 					v.footSin, v.footCos = sn, cs
 					return f, t
 				}

@@ -187,3 +187,84 @@ func (v *devEval) refine(i, n int, fb, tb, fl, fr, sgn float64) float64 {
 	}
 	return fb
 }
+
+// medialCrossings returns the fractions (at most two) at which the segment
+// crosses the medial axis of the ellipse, the segment of its major axis
+// between the centres of curvature of its ends, where the distance has a
+// kink. For a circle, whose medial axis is its centre, it returns the
+// point of closest approach to the centre when that lies deeper than half
+// the radius.
+func (v *devEval) medialCrossings() (us [2]float64, n int) {
+	// Own frame; major axis along the first coordinate.
+	swap := v.ry > v.rx
+	maj, mnr := v.rx, v.ry
+	if swap {
+		maj, mnr = mnr, maj
+	}
+	m := maj - mnr*mnr/maj // half-length of the medial axis
+	own := func(x, y float64) (float64, float64) {
+		lx, ly := v.local(x, y)
+		if swap {
+			return ly, lx
+		}
+		return lx, ly
+	}
+	circle := v.rx == v.ry
+	if !v.arc {
+		x0, y0 := own(v.sx, v.sy)
+		x1, y1 := own(v.sx+v.dx, v.sy+v.dy)
+		if circle {
+			dx, dy := x1-x0, y1-y0
+			u := -(x0*dx + y0*dy) / (dx*dx + dy*dy)
+			if u > 0 && u < 1 && math.Hypot(x0+u*dx, y0+u*dy) < 0.5*maj {
+				us[0], n = u, 1
+			}
+			return us, n
+		}
+		if (y0 < 0) != (y1 < 0) && y0 != y1 {
+			u := y0 / (y0 - y1)
+			if x := x0 + u*(x1-x0); math.Abs(x) < m && u > 0 && u < 1 {
+				us[0], n = u, 1
+			}
+		}
+		return us, n
+	}
+	qx, qy := own(v.ccx, v.ccy)
+	sx, sy := own(v.sx, v.sy)
+	a0 := math.Atan2(sy-qy, sx-qx)
+	sweep := v.sweep
+	if swap {
+		sweep = -sweep // swapping the axes mirrors the plane
+	}
+	frac := func(phi float64) float64 {
+		d := math.Mod(phi-a0, 2*math.Pi)
+		if sweep < 0 {
+			d = -d
+		}
+		if d < 0 {
+			d += 2 * math.Pi
+		}
+		return d / math.Abs(sweep)
+	}
+	if circle {
+		if h := math.Hypot(qx, qy); h > 0 && math.Abs(h-v.r) < 0.5*maj {
+			if u := frac(math.Atan2(-qy, -qx)); u > 0 && u < 1 {
+				us[0], n = u, 1
+			}
+		}
+		return us, n
+	}
+	if w := v.r*v.r - qy*qy; w > 0 {
+		w = math.Sqrt(w)
+		for _, x := range [2]float64{qx - w, qx + w} {
+			if math.Abs(x) >= m {
+				continue
+			}
+			if u := frac(math.Atan2(-qy, x-qx)); u > 0 && u < 1 && n < 2 {
+				us[n] = u
+				n++
+			}
+		}
+	}
+	return us, n
+}

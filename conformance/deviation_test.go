@@ -223,9 +223,12 @@ func segmentNear(t *rapid.T, c ellipse.Parallel) toolpath.Segment {
 	a := e.SemiMajor()
 	t0 := rapid.Float64Range(-7, 7).Draw(t, "t0")
 	span := math.Pow(10, rapid.Float64Range(-4, math.Log10(2.5)).Draw(t, "log span"))
-	w := a * math.Pow(10, rapid.Float64Range(-9, -2).Draw(t, "log width"))
+	// up to 10 a outward; inward never deeper than 0.4 of the way to the
+	// medial axis, where the sampling bound is documented to give way
+	w := a * math.Pow(10, rapid.Float64Range(-9, 1).Draw(t, "log width"))
+	deep := math.Min(w, 0.4*(e.MinRadiusOfCurvature()+c.Offset()))
 	pt := func(tt float64, name string) (float64, float64) {
-		off := rapid.Float64Range(-w, w).Draw(t, name)
+		off := rapid.Float64Range(-deep, w).Draw(t, name)
 		q, n := c.PointAt(tt), c.Normal(tt)
 		return q.X + off*n.X, q.Y + off*n.Y
 	}
@@ -286,7 +289,9 @@ func TestSegmentDeviationWithinOnePercentOfDense(t *testing.T) {
 		lo, hi := SegmentDeviation(c, s)
 		dlo, dhi := denseDeviation(c, s, 20000)
 		e := c.Ellipse()
-		eps := 1e-13 * (e.SemiMajor() + math.Abs(c.Offset()) + math.Abs(e.Center().X) + math.Abs(e.Center().Y))
+		// rounding: of coordinates of this size, and of distances this large
+		eps := 1e-13*(e.SemiMajor()+math.Abs(c.Offset())+math.Abs(e.Center().X)+math.Abs(e.Center().Y)) +
+			1e-14*math.Max(math.Abs(dlo), math.Abs(dhi))
 		allow := 0.01*(dhi-dlo) + eps
 		if !(lo >= dlo-eps && lo <= dlo+allow) {
 			t.Fatalf("lo: got %.17g, want %.17g within %.3g (range %.3g)", lo, dlo, allow, dhi-dlo)
@@ -295,6 +300,69 @@ func TestSegmentDeviationWithinOnePercentOfDense(t *testing.T) {
 			t.Fatalf("hi: got %.17g, want %.17g within %.3g (range %.3g)", hi, dhi, allow, dhi-dlo)
 		}
 	})
+}
+
+// TestSegmentDeviationAcrossTheMedialAxis: moves that cut right across a
+// slot or through the middle of a disc, where the distance has a kink (a
+// line crossing the slot) or a sharp bend (a line passing near a circle's
+// centre) that the sampling may straddle. Checked against the dense route.
+func TestSegmentDeviationAcrossTheMedialAxis(t *testing.T) {
+	slot := mustEllipse(t, ellipse.Point{X: 5, Y: -2}, 50, 0.5, 0.2)
+	disc := mustEllipse(t, ellipse.Point{}, 25, 25, 0)
+	tall := mustEllipse(t, ellipse.Point{}, 0.5, 50, 0)
+	at := func(e ellipse.Ellipse, lx, ly float64) (float64, float64) {
+		c, sn, cs := e.Center(), math.Sin(e.Rotation()), math.Cos(e.Rotation())
+		return c.X + cs*lx - sn*ly, c.Y + sn*lx + cs*ly
+	}
+	seg := func(e ellipse.Ellipse, x0, y0, x1, y1 float64) toolpath.Segment {
+		a, b := at(e, x0, y0)
+		c, d := at(e, x1, y1)
+		return line(a, b, c, d)
+	}
+	tests := []struct {
+		name string
+		c    ellipse.Parallel
+		s    toolpath.Segment
+	}{
+		{"slot, straight across", slot.Curve(), seg(slot, 3, -2, 3.5, 2)},
+		{"slot, long and oblique", slot.Curve(), seg(slot, -40, -0.9, 45, 0.7)},
+		{"slot, offset inward", mustParallel(t, slot, -0.002), seg(slot, 10, -1, 10.3, 1)},
+		{"tall slot, across", tall.Curve(), seg(tall, -3, 20, 2, 20.5)},
+		{"slot, arc across", slot.Curve(), func() toolpath.Segment {
+			cx, cy := at(slot, 10, -30)
+			return arcAbout(cx, cy, 30.2, math.Pi/2+slot.Rotation()-0.05, 0.1)
+		}()},
+		{"disc, near the centre", disc.Curve(), line(-30, 1e-3, 30, -2e-3)},
+		{"disc, arc past the centre", disc.Curve(), arcAbout(0, -40, 40.001, math.Pi/2-0.4, 0.8)},
+	}
+	// Where a line crosses the slot at right angles the deviation is a V
+	// whose point, the crossing, is the minimum: it must be hit exactly,
+	// not merely within 1%.
+	for _, e := range []ellipse.Ellipse{slot, tall} {
+		for _, x := range []float64{-20, 0.3, 31} {
+			var s toolpath.Segment
+			var cx, cy float64
+			if e.SemiX() > e.SemiY() {
+				s = seg(e, x, -e.SemiY()*0.999, x, e.SemiY()*0.9)
+				cx, cy = at(e, x, 0)
+			} else {
+				s = seg(e, -e.SemiX()*0.999, x, e.SemiX()*0.9, x)
+				cx, cy = at(e, 0, x)
+			}
+			want := e.SignedDistance(ellipse.Point{X: cx, Y: cy})
+			if lo, _ := SegmentDeviation(e.Curve(), s); math.Abs(lo-want) > 1e-12 {
+				t.Errorf("across at %g: lo %.15g, want %.15g at the crossing", x, lo, want)
+			}
+		}
+	}
+	for _, tt := range tests {
+		lo, hi := SegmentDeviation(tt.c, tt.s)
+		dlo, dhi := denseDeviation(tt.c, tt.s, 200000)
+		allow := 0.01*(dhi-dlo) + 1e-12
+		if !(lo >= dlo-1e-12 && lo <= dlo+allow) || !(hi <= dhi+1e-12 && hi >= dhi-allow) {
+			t.Errorf("%s: got [%.12g, %.12g], want [%.12g, %.12g] within %.3g", tt.name, lo, hi, dlo, dhi, allow)
+		}
+	}
 }
 
 // TestParallelDistanceIsEllipseDistanceLessOffset checks the identity
