@@ -120,10 +120,13 @@ func (f *Fault) Unwrap() []error {
 type Case struct {
 	// Name names the case in every Fault; empty gives a name built from
 	// the other fields.
-	Name  string
+	Name string
+	// Curve is the intended curve: an ellipse (e.Curve()) or a parallel
+	// curve of one (e.Parallel(d)).
 	Curve ellipse.Parallel
-	Zone  toolpath.Zone
-	Tol   float64
+	// Zone and Tol give the allowed deviation, Zone.Limits(Tol).
+	Zone toolpath.Zone
+	Tol  float64
 }
 
 // subject returns the name of the case.
