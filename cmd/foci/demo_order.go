@@ -68,16 +68,17 @@ type demoJob struct {
 }
 
 // demoOrder returns the built-in order: an oval mirror frame cut from
-// 18 mm birch plywood on a router, an acrylic door plate cut and scored on
-// a laser, and a full-size paper template of the frame for the customer
-// to try on the wall, drawn on a pen plotter.
+// 18 mm birch plywood on a router, an acrylic door plate scored and cut
+// on a laser, and a full-size paper template of the frame, drawn on a pen
+// plotter, for the customer to try on the wall.
 //
-// The router and the plotter use a 6 mm cutter's worth of common practice:
-// cut 0.5 mm into the spoilboard so the part comes free, steps of at most
-// 5 mm, tabs about 8 mm wide leaving a little over a quarter of the board.
-// The holes are for the screws that hang the frame: six, equally spaced
-// on the parallel curve 40 mm inside the outer edge, which runs between
-// the two edges all the way round.
+// The frame is cut with one 6 mm cutter, as is common practice: 0.5 mm
+// into the spoilboard so the part comes free, in equal steps of at most
+// 5 mm, with tabs 8 mm wide and 5 mm high. The holes are for the screws
+// that hang the frame: six, at equal spacing on the parallel curve 40 mm
+// inside the outer edge, which runs between the two edges all the way
+// round. Work zero is the front left corner of the stock (or the paper,
+// or the laser bed), so every program stays in positive coordinates.
 func demoOrder() []demoPart {
 	router := []string{"-feed", "1500", "-plunge", "400", "-rpm", "18000"}
 	return []demoPart{
