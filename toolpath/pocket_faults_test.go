@@ -91,9 +91,9 @@ func TestPocketChecksCatchBrokenPaths(t *testing.T) {
 		}
 	}
 	faults := []struct {
-		name  string
+		name   string
 		break_ func(p toolpath.Path) toolpath.Path
-		want  string
+		want   string
 	}{
 		{"a ring of the last level left out", func(p toolpath.Path) toolpath.Path {
 			flatten(p, mid[0], mid[1])
