@@ -66,10 +66,14 @@ type interval struct {
 }
 
 // coverage applies coverage. The final pass is, in each run that reaches
-// the deepest level of all contour moves, the moves from the first to the
-// last that reach it: tabs (moves at a raised Z inside the stock) in
-// between count as cut, a ramp down before it and a lead-out after it do
-// not. For the laser every contour move is final. The stretches of the
+// the deepest level of all contour moves, the contour moves from the first
+// that reaches it to the end of the run; when they go less than once
+// round, the moves just before them are taken in too, until they do, but
+// never a level stretch that goes more than a quarter of the way round
+// (that is an upper pass, not a tab). So a tab (a stretch cut at a raised Z
+// inside the stock) counts as cut wherever it lies, even across the start
+// of the pass, and so does a ramp the pass needs to close its lap; a
+// lead-out does not (it is no contour move). For the laser every contour move is final. The stretches of the
 // curve that none of these moves reaches (by the feet of their points),
 // longer than tol, are reported; how far a contour move strays from the
 // curve is the deviation rule's business.
@@ -91,16 +95,29 @@ func (g *geometry) coverage() {
 	var spans []span
 	for i := 0; i < len(cs); {
 		j := i
-		first, last := -1, -1
+		first := -1
 		for ; j < len(cs) && cs[j].runID == cs[i].runID; j++ {
-			if cs[j].low <= g.deepest+levelEps {
-				if first < 0 {
-					first = j
-				}
-				last = j
+			if first < 0 && cs[j].low <= g.deepest+levelEps {
+				first = j
 			}
 		}
-		for k := first; k >= 0 && k <= last; k++ {
+		if first < 0 {
+			i = j
+			continue
+		}
+		turn := 0.0
+		for k := first; k < j; k++ {
+			turn += math.Abs(cs[k].dt)
+		}
+		for first > i && turn < 2*math.Pi {
+			k := first - 1
+			if cs[k].flat && g.levelStretch(k, i) > math.Pi/2 {
+				break // an upper pass, not a tab
+			}
+			first = k
+			turn += math.Abs(cs[first].dt)
+		}
+		for k := first; k < j; k++ {
 			m := &cs[k]
 			if n := len(spans); n > 0 {
 				sp := &spans[n-1]
@@ -148,6 +165,27 @@ func (g *geometry) coverage() {
 	if end := ivs[0].lo + 2*math.Pi; end > reach {
 		g.gap(reach, end, line)
 	}
+}
+
+// levelStretch returns how far round the curve the stretch of level
+// contour moves at the height of cs[k] goes: the moves at that Z that
+// follow one another directly around k, from the run's first contour move i
+// on.
+func (g *geometry) levelStretch(k, i int) float64 {
+	cs := g.contours
+	z := cs[k].low
+	same := func(m *contourMove) bool {
+		return m.runID == cs[k].runID && m.flat && math.Abs(m.low-z) <= levelEps
+	}
+	// A plunge or a lift between two moves (a tab's side) ends a stretch.
+	turn := math.Abs(cs[k].dt)
+	for a := k - 1; a >= i && same(&cs[a]) && cs[a].index+1 == cs[a+1].index; a-- {
+		turn += math.Abs(cs[a].dt)
+	}
+	for b := k + 1; b < len(cs) && same(&cs[b]) && cs[b-1].index+1 == cs[b].index; b++ {
+		turn += math.Abs(cs[b].dt)
+	}
+	return turn
 }
 
 // gap reports the stretch of parameters from a to b when it is longer

@@ -36,6 +36,7 @@ type geometry struct {
 
 // contourMove is what the coverage and loop rules need of a contour move.
 type contourMove struct {
+	index   int     // into the path
 	t0, dt  float64 // foot parameter of the start and the turn to the end
 	low     float64 // lowest Z
 	flat    bool    // Start.Z == End.Z
@@ -182,7 +183,7 @@ func (g *geometry) walk() {
 		if lo < g.zlo-g.tiny || hi > g.zhi+g.tiny || lo != lo || hi != hi {
 			g.deviation(i, lo, hi, rough)
 		}
-		cm := contourMove{t0: t0, dt: dt, runID: run, lineNum: p.Moves[i].Line,
+		cm := contourMove{index: i, t0: t0, dt: dt, runID: run, lineNum: p.Moves[i].Line,
 			low: math.Min(s.Start.Z, s.End.Z), flat: math.Abs(s.Start.Z-s.End.Z) <= levelEps}
 		if g.r.Machine == Laser {
 			cm.low, cm.flat = 0, true // the beam cuts through: one level

@@ -37,7 +37,7 @@ type job struct {
 	steps   int       // lines per turn, uniform in the parameter
 	shift   float64   // vertices moved by this much along the normal (+ out)
 	// tab: on the deepest pass, vertices with t in [tab0, tab1] are cut at
-	// tabZ instead.
+	// tabZ instead; tab0 > tab1 puts the tab across t = 0, the start.
 	tab0, tab1, tabZ float64
 	// gap: on the deepest pass (every pass for the laser), vertices with t
 	// in [gap0, gap1] are skipped by lifting out of the cut.
@@ -166,7 +166,11 @@ func (j job) program(c ellipse.Parallel) string {
 				lifted = false
 			}
 			want := z
-			if deepest && j.tabZ != 0 && tm >= j.tab0 && tm <= j.tab1 {
+			inTab := tm >= j.tab0 && tm <= j.tab1
+			if j.tab0 > j.tab1 { // across the start of the pass
+				inTab = tm >= j.tab0 || tm <= j.tab1
+			}
+			if deepest && j.tabZ != 0 && inTab {
 				want = j.tabZ
 			}
 			if want != curZ && j.machine != Laser {
@@ -207,6 +211,10 @@ func TestGeometryRules(t *testing.T) {
 		{"one pass on the curve", base, toolpath.Band, nil},
 		{"three passes with tabs and leads on the waste side",
 			job{zone: toolpath.Outside, levels: passes, steps: 800, shift: geoTol / 2, tab0: 1, tab1: 1.1, tabZ: -4.5, lead: "waste"}, toolpath.Outside, nil},
+		{"a tab across the start of the final pass",
+			job{levels: passes, steps: 800, tab0: 6.2, tab1: 0.05, tabZ: -4}, toolpath.Band, nil},
+		{"a tab across the start of a joined final pass",
+			job{levels: passes, steps: 800, tab0: 6.2, tab1: 0.05, tabZ: -4, joined: true}, toolpath.Band, nil},
 		{"inside zone", job{levels: passes, steps: 800, shift: -geoTol / 2}, toolpath.Inside, nil},
 		{"passes joined by plunges", job{levels: passes, steps: 800, joined: true}, toolpath.Band, nil},
 		{"laser, two passes", job{machine: Laser, levels: []float64{0, 0}, steps: 800}, toolpath.Band, nil},
