@@ -20,9 +20,9 @@ type PocketSpec struct {
 	// inside contour with a clockwise spindle) or conventional
 	// (clockwise); every ring and the wall pass run the same way.
 	Direction Direction
-	// Tool is the cutter diameter (greater than zero). It must be
-	// narrower than the minor axis by at least three tolerances, see
-	// [ErrPocketToolTooWide].
+	// Tool is the cutter diameter: at least 2·Tol (see
+	// [ErrPocketToolTooSmall]) and narrower than the minor axis by at
+	// least three tolerances (see [ErrPocketToolTooWide]).
 	Tool float64
 	// Depth is the depth of the floor below Z0 (greater than zero);
 	// StepDown the deepest a level may go below the one before (greater
@@ -59,6 +59,11 @@ var (
 	// room for a ramp, so the tool must be narrower than the minor axis
 	// 2b by at least 3·Tol. The limit given is 2b − 3·Tol.
 	ErrPocketToolTooWide = errors.New("too wide for the pocket: it must be narrower than the minor axis, with room to enter; the limit is the largest diameter")
+	// ErrPocketToolTooSmall reports a tool narrower than twice the
+	// tolerance: neighbouring rings must be less than Tool − Tol apart
+	// for the bands they sweep to meet, and at least Tol apart to be
+	// worth cutting. The limit given is 2·Tol.
+	ErrPocketToolTooSmall = errors.New("too narrow for the tolerance: the limit is the smallest diameter")
 	// ErrPocketStepOver reports a step-over above the tool diameter
 	// (the rings would leave ridges between them) or below the tolerance
 	// (rings closer than the path's own accuracy).

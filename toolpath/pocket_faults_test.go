@@ -91,9 +91,9 @@ func TestPocketChecksCatchBrokenPaths(t *testing.T) {
 		}
 	}
 	faults := []struct {
-		name   string
-		break_ func(p toolpath.Path) toolpath.Path
-		want   string
+		name  string
+		spoil func(p toolpath.Path) toolpath.Path
+		want  string
 	}{
 		{"a ring of the last level left out", func(p toolpath.Path) toolpath.Path {
 			flatten(p, mid[0], mid[1])
@@ -162,7 +162,7 @@ func TestPocketChecksCatchBrokenPaths(t *testing.T) {
 		}, "starts at"},
 	}
 	for _, f := range faults {
-		p := f.break_(append(toolpath.Path(nil), good...))
+		p := f.spoil(append(toolpath.Path(nil), good...))
 		msgs := new(pocketRecorder).run(func(tb pocketTB) { checkPocket(tb, s, p, 3000) })
 		found := false
 		for _, m := range msgs {

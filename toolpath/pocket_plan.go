@@ -82,6 +82,9 @@ func (s PocketSpec) plan() (*pocketPlan, error) {
 		return nil, &OpError{Field: "Ellipse", Err: err}
 	}
 	b := g.b
+	if !(s.Tool >= 2*tol) {
+		return nil, opLimit("Tool", s.Tool, 2*tol, ErrPocketToolTooSmall)
+	}
 	if lim := 2*b - 3*tol; !(s.Tool <= lim) {
 		return nil, opLimit("Tool", s.Tool, math.Max(lim, 0), ErrPocketToolTooWide)
 	}

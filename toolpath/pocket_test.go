@@ -224,6 +224,7 @@ func TestPocketRefusals(t *testing.T) {
 	}{
 		{"laser", func(s *PocketSpec) { s.Machine, s.SafeZ = Laser, 0 }, "Machine", ErrPocketMachine, math.NaN()},
 		{"no tool", func(s *PocketSpec) { s.Tool = 0 }, "Tool", ErrNotPositive, math.NaN()},
+		{"tool below two tolerances", func(s *PocketSpec) { s.Tool, s.StepOver = 0.09, 0.05 }, "Tool", ErrPocketToolTooSmall, 0.1},
 		// The minor axis is 200: at most 200 − 3·0.05.
 		{"tool as wide as the minor axis", func(s *PocketSpec) { s.Tool, s.StepOver = 200, 50 }, "Tool", ErrPocketToolTooWide, 199.85},
 		{"tool just too wide", func(s *PocketSpec) { s.Tool, s.StepOver = 199.9, 50 }, "Tool", ErrPocketToolTooWide, 199.85},
