@@ -218,9 +218,16 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi floa
 	// The arc's points sit on the curve's normals up to the zone's edge,
 	// where a step along the curve covers (1 + |edge|·κ) times the length.
 	edge := math.Max(math.Abs(a.lo), math.Abs(a.hi))
-	length := math.Abs(f.e.ArcLength(t0, t1)) * (1 + (f.d+edge)*kmax)
-	if c, err := f.e.Parallel(f.d + edge); err == nil {
-		length = math.Abs(c.ArcLength(t0, t1))
+	// Length of the zone's outer edge over the interval, cheaply and from
+	// above enough: Simpson on its speed, or its turning times the largest
+	// radius there, whichever is larger (the first misses a tight tip
+	// between the nodes, the second a flat stretch).
+	tm := 0.5 * (t0 + t1)
+	off := f.d + edge
+	length := math.Abs(t1-t0) * (f.speed(t0, off) + 4*f.speed(tm, off) + f.speed(t1, off)) / 6
+	nu0, nu1 := f.normalAngle(t0), f.normalAngle(t1)
+	if kmin > 0 {
+		length = math.Max(length, math.Abs(nu1-nu0)*(1/kmin+edge))
 	}
 	// |κ′| over the interval, bounded from the curvature change over it.
 	dk := 4 * (kmax - kmin) / math.Max(length, 1e-300)
@@ -237,7 +244,13 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi floa
 		n = int(math.Min(x+1, maxSamples))
 	}
 	var ts, v [2*maxSamples + 2]float64
-	m := f.mergedGrid(t0, t1, n/2, ts[:0])
+	var m int
+	if dn, dt := math.Abs(nu1-nu0), math.Abs(t1-t0); dn > 2*dt || dn < dt/2 {
+		m = f.mergedGrid(t0, t1, n/2, ts[:0], true)
+	} else {
+		// The normal turns about as fast as the parameter: one grid.
+		m = f.mergedGrid(t0, t1, n, ts[:0], false)
+	}
 	lo, hi = math.Min(d0, d1), math.Max(d0, d1)
 	v[0], v[m-1] = d0, d1
 	for j := 1; j < m-1; j++ {
@@ -297,14 +310,17 @@ func (f *frame) paramAtNormal(nu float64) float64 {
 }
 
 // mergedGrid appends to dst the parameters t0, then n steps uniform in t
-// merged in order with n steps uniform in the normal angle, then t1, and
-// returns the count.
-func (f *frame) mergedGrid(t0, t1 float64, n int, dst []float64) int {
+// merged in order (when normals is set) with n steps uniform in the normal
+// angle, then t1, and returns the count.
+func (f *frame) mergedGrid(t0, t1 float64, n int, dst []float64, normals bool) int {
 	nu0, nu1 := f.normalAngle(t0), f.normalAngle(t1)
 	dst = append(dst, t0)
 	ht := (t1 - t0) / float64(n+1)
 	hn := (nu1 - nu0) / float64(n+1)
 	i, j := 1, 1
+	if !normals {
+		j = n + 1 // no normal-angle samples
+	}
 	up := t1 > t0
 	var nt float64
 	haveN := false
