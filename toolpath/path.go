@@ -17,6 +17,15 @@
 // tangent-continuous arcs, holding O(1) state and allocating nothing per
 // segment.
 //
+// # Operations
+//
+// [Profile] cuts a part out or a hole in it (tool or kerf offset to the
+// waste side, equal depth passes, holding tabs, lead arcs, ramps),
+// [Drill] puts holes or marks at equal arc length, [Dash] draws a dashed
+// outline that closes evenly, and [Pocket] clears an elliptical recess.
+// [Envelope.Check] refuses a path that leaves the machine's travel and
+// [Summarize] reports lengths and an estimated time.
+//
 // The core works in one length unit, whatever the caller uses; angles are
 // radians.
 package toolpath
