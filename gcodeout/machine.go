@@ -1,55 +1,35 @@
 package gcodeout
 
-// Machine is the kind of machine a program is written for. It decides how
-// the tool is engaged: a router runs a spindle and moves in Z, a laser
-// switches a beam and stays at one height, a plotter lifts and lowers a pen.
+import "github.com/focitools/foci/toolpath"
+
+// Machine is the kind of machine a program is written for: the same type
+// as [toolpath.Machine], so that one value flows from the operation that
+// built a path to the writer. It decides how the writer engages the tool:
+//
+//   - Router, a spindle machine (router or mill): the start block moves to
+//     SafeZ and starts the spindle with M3 S<RPM>; the end block returns to
+//     SafeZ and stops it with M5. Path Z values are written as given.
+//   - Laser, a beam machine: the beam is off (M5) except during cutting
+//     moves, where M3 S<Power> switches it on; travels are written with the
+//     beam off. Path Z values are never written: the head stays at one
+//     height (FocusZ, when the Config asks for a focus move).
+//   - Plotter, a pen machine: the start and end blocks lift the pen to
+//     PenUp; path Z values (pen up, pen down) are written as given. No
+//     spindle or beam words are written.
 //
 // The zero Machine is not a machine kind: a [Config] must name one.
-type Machine uint8
+type Machine = toolpath.Machine
 
+// The machine kinds, as in package toolpath.
 const (
-	// Router is a spindle machine (router or mill). The start block moves to
-	// SafeZ and starts the spindle with M3 S<RPM>; the end block returns to
-	// SafeZ and stops it with M5. Path Z values are written as given.
-	Router Machine = iota + 1
-	// Laser is a beam machine. The beam is off (M5) except during cutting
-	// moves, where M3 S<Power> switches it on; travels are written with
-	// the beam off. Path Z values are never written: the head stays at one
-	// height (FocusZ, when the Config asks for a focus move).
-	Laser
-	// Plotter is a pen machine. The start and end blocks lift the pen to
-	// PenUp; path Z values (pen up, pen down) are written as given. No
-	// spindle or beam words are written.
-	Plotter
+	Router  = toolpath.Router
+	Laser   = toolpath.Laser
+	Plotter = toolpath.Plotter
 )
-
-// String returns "router", "laser" or "plotter", and "unknown" for any
-// other value.
-func (m Machine) String() string {
-	switch m {
-	case Router:
-		return "router"
-	case Laser:
-		return "laser"
-	case Plotter:
-		return "plotter"
-	}
-	return "unknown"
-}
 
 // ParseMachine returns the machine kind named s ("router", "laser",
 // "plotter"), and false for any other string.
-func ParseMachine(s string) (Machine, bool) {
-	switch s {
-	case "router":
-		return Router, true
-	case "laser":
-		return Laser, true
-	case "plotter":
-		return Plotter, true
-	}
-	return 0, false
-}
+func ParseMachine(s string) (Machine, bool) { return toolpath.ParseMachine(s) }
 
 // Units is the length unit of a program: every coordinate, feed and
 // height given to the writer is in this unit, and the writer converts
