@@ -116,19 +116,20 @@ func RoundingAllowance(decimals int) float64 {
 // allocates nothing per segment; create it with [NewApproximator] and call
 // [Approximator.Next] until it reports false.
 type Approximator struct {
-	spec  Spec
-	f     frame
-	lo    float64 // usable deviation range after the rounding allowance
-	hi    float64
-	round float64 // rounding allowance
-	sigma float64 // +1 counter-clockwise, −1 clockwise
-	t     float64 // current parameter
-	tEnd  float64
-	done  bool
-	n     int // segments emitted
-	limit int // segments allowed before the approximation counts as stalled
-	err   error
-	arcs  arcState
+	spec   Spec
+	f      frame
+	lo     float64 // usable deviation range after the rounding allowance
+	hi     float64
+	round  float64 // rounding allowance
+	sigma  float64 // +1 counter-clockwise, −1 clockwise
+	t      float64 // current parameter
+	tEnd   float64
+	done   bool
+	n      int     // segments emitted
+	lineDt float64 // parameter span of the last chord
+	limit  int     // segments allowed before the approximation counts as stalled
+	err    error
+	arcs   arcState
 }
 
 // NewApproximator validates s and returns an Approximator positioned at its

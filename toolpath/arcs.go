@@ -6,8 +6,6 @@ import (
 	"github.com/focitools/foci/ellipse"
 )
 
-type ellipsePoint = ellipse.Point
-
 // Arcs: a chain of circular arcs with a common tangent at every join
 // (G1). Each arc starts where the last ended, with its tangent, and ends
 // on the parallel curve in the middle of the zone at the farthest curve
@@ -44,7 +42,7 @@ const (
 
 // arcState holds the arc approximator's state between segments: O(1).
 type arcState struct {
-	lastDt float64 // parameter span of the last step (also used by lines)
+	lastDt float64 // parameter span of the last step
 	p, tan vec     // current point and unit tangent (direction of travel)
 	tp     float64 // parameter of the current point's foot
 	dev    float64 // its deviation
@@ -397,13 +395,12 @@ func arcTo(p, tg, q vec) (k float64, end vec) {
 
 // trial is one candidate step.
 type trial struct {
-	k      float64
-	end    vec
-	q      vec
-	dev1   float64
-	ratio  float64 // worst use of the half-width; ≤ 1 fits
-	t1     float64
-	isLine bool
+	k     float64
+	end   vec
+	q     vec
+	dev1  float64
+	ratio float64 // worst use of the half-width; ≤ 1 fits
+	t1    float64
 }
 
 // try builds and measures the step to foot parameter t1.
@@ -432,7 +429,7 @@ func (a *Approximator) tryEnd(s *arcState, t1, e1 float64) (trial, float64, floa
 		}
 		lam := s.tan.cross(s.p.sub(q)) / den
 		q = q.addScaled(n, lam)
-		tr = trial{k: 0, end: s.tan, q: q, dev1: e1 + lam, t1: t1, isLine: true}
+		tr = trial{k: 0, end: s.tan, q: q, dev1: e1 + lam, t1: t1}
 		if q.sub(s.p).dot(s.tan) <= 0 {
 			tr.ratio = math.Inf(1)
 			return tr, 0, 0
@@ -579,7 +576,7 @@ func (s *arcState) closeFits(a *Approximator, n int) bool {
 		devJ := a.f.e.SignedDistance(ptOf(j)) - a.f.d
 		g1 := a.newArcGeom(p, tg, a1, j)
 		lo1, hi1 := a.devRange(tp, tj, dev, devJ, &g1)
-		_, jt := arcEndTangent(p, tg, a1, j)
+		_, jt := arcTo(p, tg, j)
 		g2 := a.newArcGeom(j, jt, a2, q)
 		lo2, hi2 := a.devRange(tj, t1, devJ, a.mid(), &g2)
 		if m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo); math.Min(lo1, lo2) < m-w || math.Max(hi1, hi2) > m+w {
@@ -599,14 +596,8 @@ func (s *arcState) piece(a *Approximator, i, n int, t1 float64) (vec, vec) {
 	return q, tq.scale(a.sigma)
 }
 
-func ptOf(v vec) ellipsePoint { return ellipsePoint{X: v.x, Y: v.y} }
-
-// arcEndTangent returns the end point and tangent of the arc from p with
-// tangent tg and curvature k that ends at q.
-func arcEndTangent(p, tg vec, k float64, q vec) (vec, vec) {
-	_, end := arcTo(p, tg, q)
-	return q, end
-}
+// ptOf converts to the ellipse package's point.
+func ptOf(v vec) ellipse.Point { return ellipse.Point{X: v.x, Y: v.y} }
 
 // biarc returns the curvatures of the two arcs of the equal-tangent-length
 // biarc from (p0, t0) to (p1, t1), the join point and the foot parameter
@@ -660,7 +651,7 @@ func (s *arcState) nextClosing(a *Approximator) (Segment, bool) {
 		return Segment{}, false
 	}
 	first := s.segment(trial{k: k1, q: j})
-	_, jt := arcEndTangent(s.p, s.tan, k1, j)
+	_, jt := arcTo(s.p, s.tan, j)
 	mid := arcState{p: j, tan: jt}
 	s.second = mid.segment(trial{k: k2, q: q})
 	s.half = true

@@ -51,7 +51,7 @@ func (a *Approximator) nextLine() (Segment, bool) {
 	t0 := a.t
 	// First guess: the previous step, else the local chord length
 	// √(8h/κ) over the speed.
-	dt := a.arcs.lastDt
+	dt := a.lineDt
 	if dt == 0 {
 		k, _ := f.curvature(t0, off)
 		dt = math.Sqrt(8*h/k) / f.speed(t0, off)
@@ -95,7 +95,7 @@ func (a *Approximator) nextLine() (Segment, bool) {
 		}
 		best = dt
 	}
-	a.arcs.lastDt = best
+	a.lineDt = best
 	t1 := t0 + a.sigma*best
 	if best >= remaining || math.Abs(a.tEnd-t1) < 1e-15*math.Max(1, math.Abs(t1)) {
 		t1 = a.tEnd
