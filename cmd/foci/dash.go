@@ -10,7 +10,8 @@ import (
 // runDash writes a dashed or dotted outline: dashes of -dash ON with gaps
 // of OFF along the ellipse or its parallel curve, both scaled alike so
 // that a whole number of periods closes the loop evenly
-// (toolpath.DashPattern); ON = 0 gives dots, one mark per period.
+// (toolpath.DashPattern); ON = 0 gives dots, one mark per period. A dash
+// shorter than the tolerance is refused.
 func runDash(e *env, args []string) error {
 	fs := newFlagSet("dash", "dash -machine router|laser|plotter -size WxH -dash ON,OFF [-offset D] [flags]", e.stderr)
 	var shape shapeFlags
@@ -51,6 +52,10 @@ func runDash(e *env, args []string) error {
 	on, off := v[0], v[1]
 	if err := firstError(nonNegative("dash", on), positive("dash", off)); err != nil {
 		return badFlag("dash", "%s,%s: the dash must be zero or more and the gap greater than zero", fmtNum(on), fmtNum(off))
+	}
+	if on > 0 && on < cf.tol {
+		// Shorter than the tolerance zone is wide, a dash is no dash.
+		return badFlag("dash", "%s: a dash must be 0 (for dots) or at least as long as the tolerance %s", fmtNum(on), fmtNum(cf.tol))
 	}
 	if err := finite("offset", *offset); err != nil {
 		return err

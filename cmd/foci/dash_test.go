@@ -156,7 +156,9 @@ func TestDashRefusesBadInput(t *testing.T) {
 		{with(p, "-dash", "10,0"), "dash"},
 		{with(p, "-dash", "-1,5"), "dash"},
 		{with(p, "-dash", "a,b"), "dash"},
-		{with(p, "-dash", "1e-9,1e-9"), "dash"}, // far too many dashes
+		{with(p, "-dash", "1e-9,1e-9"), "dash"}, // shorter than the tolerance
+		{with(p, "-dash", "0.04,5"), "dash"},    // likewise, at -tol 0.05
+		{with(p, "-dash", "0,1e-9"), "dash"},    // far too many dots
 		{with(p, "-dash", "10,5", "-tol", "0"), "tol"},
 		{with(p, "-dash", "10,5", "-offset", "-80"), "offset"},
 		{with(p, "-dash", "10,5", "-depth", "1"), "depth"},

@@ -2,10 +2,15 @@ package main
 
 import (
 	"bytes"
+	"math"
 	"os"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
+
+	"pgregory.net/rapid"
 
 	"github.com/focitools/foci/conformance"
 	"github.com/focitools/foci/ellipse"
@@ -153,10 +158,12 @@ func TestProgramDecimalsCoverTheToleranceAndTheWriterMinimum(t *testing.T) {
 		units Units
 		want  int
 	}{
-		// 10^-d·√2 ≤ tol/100 (toolpath.DecimalsFor), at least 3 for mm
-		// and 5 for inch (gcodeout.MinDecimals), at most 8.
+		// 10^-d·√2 ≤ tol/100 (toolpath.DecimalsFor), at least 4 for mm
+		// and 5 for inch (arc radii within the limit by rounding alone),
+		// at most 8 (gcodeout.MaxDecimals).
 		{0.05, unitsMM, 4},
-		{0.5, unitsMM, 3},
+		{0.5, unitsMM, 4},
+		{0.0051, unitsMM, 5},
 		{0.001, unitsMM, 6},
 		{0.002, unitsInch, 5},
 		{0.02, unitsInch, 5},
@@ -209,4 +216,135 @@ func TestOperationsWritePicturesAndReportsBeforeTheProgram(t *testing.T) {
 			}
 		}
 	}
+}
+
+// Over random shapes, machines and settings, every operation command
+// either writes a program that passes every check, or refuses with exit 2
+// and a message naming a flag; it never panics and never exits otherwise.
+func TestOperationsWriteCheckedProgramsOrNameTheFlag(t *testing.T) {
+	flagNamed := regexp.MustCompile(`foci [a-z]+: -[a-z-]+: `)
+	rapid.Check(t, func(rt *rapid.T) {
+		inch := rapid.Bool().Draw(rt, "inch")
+		k, units := 1.0, "mm"
+		if inch {
+			k, units = 1/25.4, "inch"
+		}
+		num := func(label string, lo, hi float64) float64 {
+			v := rapid.Float64Range(lo, hi).Draw(rt, label)
+			return float64(float32(v)) // short numbers, as a user types them
+		}
+		w := num("width", 5, 2000) * k
+		h := w * num("aspect", 0.02, 1)
+		cx, cy, rot := num("cx", -500, 500)*k, num("cy", -500, 500)*k, num("rotate", -180, 180)
+		tol := num("tol", 0.005, 0.5) * k
+		machine := rapid.SampledFrom([]string{"router", "laser", "plotter"}).Draw(rt, "machine")
+		cmd := rapid.SampledFrom([]string{"profile", "drill", "dash"}).Draw(rt, "command")
+		g := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+		args := append([]string{cmd, "-machine", machine}, shapeArgs(w, h, cx, cy, rot, units)...)
+		var offset float64
+		zone := toolpath.Band
+		switch cmd {
+		case "profile":
+			args = append(args, "-tol", g(tol))
+			side := rapid.SampledFrom([]string{"outside", "inside", "on"}).Draw(rt, "side")
+			args = append(args, "-side", side)
+			r := 0.0
+			switch machine {
+			case "router":
+				tool, depth := num("tool", 0.5, 25)*k, num("depth", 0.5, 30)*k
+				r = tool / 2
+				passes := rapid.IntRange(1, 5).Draw(rt, "passes")
+				args = append(args, "-tool", g(tool), "-depth", g(depth), "-stepdown", g(depth/float64(passes)))
+				// The checker counts a height as a depth level once its
+				// moves go half way round, tabs included: keep the raised
+				// stretches of all passes well short of that.
+				n, tw := rapid.IntRange(0, 6).Draw(rt, "tabs"), num("tab width", 1, 12)*k
+				if perimeter := math.Pi * (w + h) / 2; n > 0 && float64(n*passes)*(tw+tool) < perimeter/4 {
+					args = append(args, "-tabs", strconv.Itoa(n), "-tab-width", g(tw))
+				}
+			case "laser":
+				kerf := num("kerf", 0.05, 0.5) * k
+				r = kerf / 2
+				args = append(args, "-kerf", g(kerf), "-power", "500", "-passes", strconv.Itoa(rapid.IntRange(1, 3).Draw(rt, "passes")))
+			}
+			if side != "on" {
+				// The checker tells a lead from the contour by its far end
+				// lying more than the tolerance beyond the zone, so leads
+				// are either none or over twice the tolerance in radius, and
+				// small beside the curve's radius so that their ends stand
+				// off by nearly their radius.
+				lead := "0"
+				if r := tol * num("lead/tol", 2.2, 6); rapid.Bool().Draw(rt, "lead") && 10*r < (h/2)*(h/2)/(w/2) {
+					lead = g(r)
+				}
+				args = append(args, "-lead", lead)
+			}
+			switch side {
+			case "outside":
+				offset, zone = r, toolpath.Outside
+			case "inside":
+				offset, zone = -r, toolpath.Inside
+			default:
+				offset = 0
+			}
+		case "drill", "dash":
+			offset = num("offset", -50, 50) * k
+			args = append(args, "-offset", g(offset))
+			if cmd == "drill" {
+				args = append(args, "-count", strconv.Itoa(rapid.IntRange(1, 40).Draw(rt, "count")))
+			} else {
+				args = append(args, "-tol", g(tol), "-dash", g(num("on", 0, 50)*k)+","+g(num("off", 0.5, 50)*k))
+			}
+			switch machine {
+			case "router":
+				args = append(args, "-depth", g(num("depth", 0.5, 10)*k))
+			case "laser":
+				args = append(args, "-power", "300")
+			}
+		}
+		dir := t.TempDir()
+		file := filepath.Join(dir, "p.gcode")
+		res := runFoci(t, append(args, "-o", file)...)
+		switch res.code {
+		case 2:
+			if !flagNamed.MatchString(res.stderr) {
+				rt.Fatalf("foci %s: refused without naming a flag: %q", strings.Join(args, " "), res.stderr)
+			}
+			if _, err := os.Stat(file); err == nil {
+				rt.Fatalf("foci %s: refused but wrote %s", strings.Join(args, " "), file)
+			}
+			return
+		case 0:
+		default:
+			rt.Fatalf("foci %s: exit %d: %s", strings.Join(args, " "), res.code, res.stderr)
+		}
+		src, err := os.ReadFile(file)
+		if err != nil {
+			rt.Fatal(err)
+		}
+		cm, _ := conformance.ParseMachine(machine)
+		safe := map[string]float64{"router": 5 * k, "laser": 0, "plotter": 3 * k}[machine]
+		if inch {
+			safe = map[string]float64{"router": 0.2, "laser": 0, "plotter": 0.12}[machine]
+		}
+		rules := conformance.Rules{Machine: cm, SafeZ: safe}
+		if cmd == "profile" {
+			el, err := ellipse.FromSize(w, h, ellipse.Point{X: cx, Y: cy}, rot*math.Pi/180)
+			if err != nil {
+				rt.Fatal(err)
+			}
+			curve, err := el.Parallel(offset)
+			if err != nil {
+				rt.Fatal(err)
+			}
+			rules.Shape = &conformance.Shape{Curve: curve, Zone: zone, Tol: tol}
+		}
+		p, err := conformance.Read(src, conformance.ReadOptions{})
+		if err != nil {
+			rt.Fatal(err)
+		}
+		if vs := conformance.Check(p, rules); len(vs) > 0 {
+			rt.Fatalf("foci %s: %d violations, the first: %v", strings.Join(args, " "), len(vs), vs[0])
+		}
+	})
 }

@@ -199,13 +199,21 @@ func (c *curveFlags) resolve(set map[string]bool, u Units) (toolpath.Geometry, t
 
 // programDecimals returns the coordinate decimals of a program made to
 // tolerance tol: the approximation's choice (rounding at most 1% of the
-// tolerance, see toolpath.DecimalsFor), raised to the writer's minimum for
-// the units so that arc radii stay within the RS274NGC limit, and capped
-// at the writer's maximum. A tolerance too fine for the cap is then
-// refused by the approximation as too fine for the decimals.
+// tolerance, see toolpath.DecimalsFor), at least 4 for mm and 5 for inch,
+// and at most the writer's maximum. The floor keeps centre-form arcs
+// within the RS274NGC radius limit by rounding alone: three rounded
+// points move the two radii apart by at most 2√2 units in the last place,
+// 0.00028 mm at 4 decimals against the 0.002 mm limit and 0.000028 in at
+// 5 against 0.0002 in, where 3 mm decimals could reach 0.0028 mm and
+// would rest on the writer finding a better centre. A tolerance too fine
+// for the maximum is then refused by the approximation as too fine for
+// the decimals.
 func programDecimals(tol float64, u Units) int {
-	d := toolpath.DecimalsFor(tol)
-	d = max(d, gcodeout.MinDecimals(writerUnits(u)))
+	floor := 4
+	if u == unitsInch {
+		floor = 5
+	}
+	d := max(toolpath.DecimalsFor(tol), floor, gcodeout.MinDecimals(writerUnits(u)))
 	return min(d, gcodeout.MaxDecimals)
 }
 

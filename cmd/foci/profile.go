@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -84,6 +85,13 @@ func runProfile(e *env, args []string) error {
 	spec.Setup = mf.setup(cf.tol, geom, dec)
 	path, err := toolpath.Profile(nil, spec)
 	if err != nil {
+		var oe *toolpath.OpError
+		if errors.As(err, &oe) && errors.Is(err, toolpath.ErrToolTooLarge) && oe.Limit <= 0 {
+			// No width fits: the tolerance zone alone reaches the fold.
+			fold := el.MinRadiusOfCurvature()
+			return badFlag("tol", "%s is too wide for an inside cut of this ellipse: the zone reaches inward past the minimum radius of curvature b²/a = %s, where the inward parallel curves fold, so no tool fits; use a tolerance below %s",
+				fmtNum(cf.tol), fmtNum(fold), fmtNum(fold))
+		}
 		return opFlagError(err, profileFields, o.widthFlag(mf.m), cf.tol)
 	}
 	side, curve, zone := profileCurve(spec, el)

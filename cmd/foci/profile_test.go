@@ -403,6 +403,7 @@ func TestProfileRefusesBadInput(t *testing.T) {
 		{[]string{"profile", "-machine", "laser", "-size", "300x200", "-power", "500"}, "kerf"},
 		{[]string{"profile", "-machine", "laser", "-size", "300x200", "-kerf", "0.2"}, "power"},
 		{[]string{"profile", "-machine", "plotter", "-size", "300x200", "-pen-up", "0"}, "pen-up"},
+		{[]string{"profile", "-machine", "plotter", "-size", "300x10", "-side", "inside", "-tol", "0.5"}, "tol"}, // b²/a = 0.167
 		{[]string{"profile", "-machine", "plotter", "-size", "300x200", "-feed", "0"}, "feed"},
 	})
 }
