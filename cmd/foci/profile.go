@@ -105,7 +105,8 @@ func runProfile(e *env, args []string) error {
 	}
 	cfg.Header.Shape = shapeText(&shape, 0)
 	cfg.Header.Tool = o.toolText(mf.m, side, shape.units)
-	cfg.Header.Tolerance = zoneText(zone, cf.tol, shape.units) + " of the tool-centre path"
+	cfg.Header.Tolerance = zoneText(zone, cf.tol, shape.units) + map[toolpath.Machine]string{
+		toolpath.Router: " of the tool-centre path", toolpath.Laser: " of the beam path", toolpath.Plotter: " of the pen path"}[mf.m]
 	cfg.Header.Operations = o.operations(&mf, spec, side, shape.units)
 	wr, err := newProgramWriter(cfg, "pen-up")
 	if err != nil {
