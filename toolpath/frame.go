@@ -32,7 +32,7 @@ func (a vec) sub(b vec) vec                  { return vec{a.x - b.x, a.y - b.y} 
 func (a vec) scale(k float64) vec            { return vec{a.x * k, a.y * k} }
 func (a vec) dot(b vec) float64              { return a.x*b.x + a.y*b.y }
 func (a vec) cross(b vec) float64            { return a.x*b.y - a.y*b.x }
-func (a vec) norm() float64                  { return math.Hypot(a.x, a.y) }
+func (a vec) norm() float64                  { return math.Sqrt(a.x*a.x + a.y*a.y) }
 func (a vec) left() vec                      { return vec{-a.y, a.x} }
 func (a vec) addScaled(b vec, k float64) vec { return vec{a.x + k*b.x, a.y + k*b.y} }
 
@@ -43,7 +43,7 @@ func (f *frame) at(t, off float64) (p, tan, nrm vec) {
 	s, c := math.Sincos(t)
 	lx, ly := f.rx*c, f.ry*s
 	tx, ty := -f.rx*s, f.ry*c
-	h := math.Hypot(tx, ty)
+	h := math.Sqrt(tx*tx + ty*ty) // semi-axes are at most 1e100
 	tx, ty = tx/h, ty/h
 	nx, ny := ty, -tx
 	lx += off * nx
