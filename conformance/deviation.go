@@ -131,21 +131,28 @@ func SegmentDeviation(curve ellipse.Parallel, s toolpath.Segment) (lo, hi float6
 
 	// Coarse pass: five points, the first by the exact distance and the
 	// rest tracked from it.
-	var fs, ts, ks [devFirst + 1]float64
-	fs[0], ts[0] = ev.exact(0)
+	var fs, ts, ks, gs [devFirst + 1]float64
+	fs[0], ts[0] = ev.start()
 	ks[0] = ev.kappa()
+	var rate float64
+	gs[0], rate = ev.slope(0, fs[0])
 	flo, fhi := fs[0], fs[0]
 	maxTan := ev.misalignment(0) // largest tan θ at the samples
 	for i := 1; i <= devFirst; i++ {
 		u := float64(i) / devFirst
-		guess := ts[i-1]
-		if i > 1 {
-			guess += ts[i-1] - ts[i-2]
-		}
-		fs[i], ts[i] = ev.track(u, guess, 1.0/devFirst, fs[i-1])
+		fs[i], ts[i] = ev.track(u, ts[i-1]+rate/devFirst, 1.0/devFirst, fs[i-1])
 		ks[i] = ev.kappa()
+		gs[i], rate = ev.slope(u, fs[i])
 		flo, fhi = math.Min(flo, fs[i]), math.Max(fhi, fs[i])
 		maxTan = math.Max(maxTan, ev.misalignment(u))
+	}
+	us, k := ev.medialCrossings()
+	if k == 0 {
+		if c, ok := ev.bendBound(&ts, &ks, flo, fhi, maxTan); ok {
+			if lo, hi, ok := ev.search(&fs, &gs, &ts, c, !ev.arc); ok {
+				return lo, hi
+			}
+		}
 	}
 	n := ev.intervals(&ts, &ks, flo, fhi, maxTan)
 
@@ -172,7 +179,6 @@ func SegmentDeviation(curve ellipse.Parallel, s toolpath.Segment) (lo, hi float6
 		hi = ev.refine(x.maxI, n, x.maxF, x.maxT, x.maxL, x.maxR, 1)
 	}
 	lo = -ev.refine(x.minI, n, -x.minF, x.minT, -x.minL, -x.minR, -1)
-	us, k := ev.medialCrossings()
 	for _, u := range us[:k] {
 		f, _ := ev.exact(u)
 		lo, hi = math.Min(lo, f), math.Max(hi, f)
@@ -302,37 +308,8 @@ func (v *devEval) exact(u float64) (f, t float64) {
 func (v *devEval) track(u, t0, du, fRef float64) (f, t float64) {
 	x, y := v.point(u)
 	qx, qy := v.local(x, y)
-	t = t0
-	for k := 0; k < 8; k++ {
-		sn, cs := math.Sincos(t)
-		px, py := v.rx*cs, v.ry*sn
-		vx, vy := -v.rx*sn, v.ry*cs
-		wx, wy := qx-px, qy-py
-		g := wx*vx + wy*vy
-		speed2 := vx*vx + vy*vy
-		gp := -(wx*px + wy*py) - speed2
-		if !(gp < -0.25*speed2) {
-			break // too deep inside: the foot is not well defined here
-		}
-		step := g / gp
-		if math.Abs(step) < 1e-6 {
-			nx, ny := v.ry*cs, v.rx*sn
-			speed := math.Sqrt(nx*nx + ny*ny)
-			sd := (wx*nx + wy*ny) / speed
-			kv2 := v.rx * v.ry / speed // κ·|p′|²
-			if 0.5*kv2*math.Abs(1+sd*kv2/speed2)*step*step <= 1e-17*v.size {
-				f = sd - v.d
-				if sd > -0.5*v.reach && math.Abs(f-fRef) <= du*v.length*(1+1e-9)+1e-13*v.size {
-					v.footSin, v.footCos = sn, cs
-					return f, t
-				}
-				break
-			}
-		}
-		if math.Abs(step) > 0.5 {
-			break
-		}
-		t -= step
+	if f, t, ok := v.newton(qx, qy, t0); ok && math.Abs(f-fRef) <= du*v.length*(1+1e-9)+1e-13*v.size {
+		return f, t
 	}
 	f, t = v.exact(u)
 	return f, t0 + math.Remainder(t-t0, 2*math.Pi)

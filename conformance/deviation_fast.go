@@ -1,0 +1,194 @@
+package conformance
+
+import "math"
+
+// Bounded search for SegmentDeviation: the extremes of the deviation
+// located by samples that carry the slope as well as the value, with an
+// interval dropped as soon as a lower (upper) bound built from the slope and
+// the bound on f″ shows that it cannot hold a value more than 1% of the
+// range beyond the best found.
+
+// devSearchCap is the most samples the bounded search takes before it
+// hands the segment to the dense pass.
+const devSearchCap = 40
+
+// devSample is one sample of the bounded search: fraction u along the
+// segment, deviation f, its derivative g = df/du and the foot parameter t.
+type devSample struct{ u, f, g, t float64 }
+
+// slope returns df/du at fraction u, for the foot last found: the
+// gradient of the signed distance is the unit outward normal at the foot,
+// so df/du = L·n·d with d the unit direction of the segment.
+//
+// It also returns dt/du, the rate at which the foot moves: a point
+// p(t) + λ·n(t) moves by (1 + λκ)|p′| per unit of t along the tangent, so
+// dt/du = L·d·p′/(|p′|²(1 + λκ)), with λ the signed distance f + offset.
+func (v *devEval) slope(u, f float64) (g, rate float64) {
+	ux, uy := v.direction(u)
+	sn, cs := v.footSin, v.footCos
+	// the direction in the own frame
+	dx, dy := v.cos*ux+v.sin*uy, -v.sin*ux+v.cos*uy
+	nx, ny := v.ry*cs, v.rx*sn // own-frame outward normal, |n| = |p′|
+	s2 := nx*nx + ny*ny
+	s := math.Sqrt(s2)
+	g = v.length * (dx*nx + dy*ny) / s
+	k := v.rx * v.ry / (s2 * s)
+	rate = v.length * (-dx*v.rx*sn + dy*v.ry*cs) / (s2 * (1 + (f+v.d)*k))
+	return g, rate
+}
+
+// lowerBound returns a lower bound on f over [a.u, b.u] for a function
+// with f″ ≥ −c there (c ≥ 0), and the fraction where the bound is reached.
+// Each end gives a concave minorant, ℓa(x) = fa + ga·(x − a) − c(x − a)²/2
+// and likewise ℓb; for any split m, f ≥ ℓa on [a, m] and f ≥ ℓb on [m, b],
+// and a concave function is smallest at an end of an interval, so f ≥
+// min(fa, ℓa(m), ℓb(m), fb). The best split is where the minorants cross;
+// their difference is linear in x.
+func lowerBound(a, b devSample, c float64) (lb, at float64) {
+	h := b.u - a.u
+	s := h / 2
+	num := a.f - b.f + b.g*h + c*h*h/2
+	if den := a.g - b.g - c*h; den != 0 {
+		if r := -num / den; r > 0 && r < h {
+			s = r
+		}
+	}
+	la := a.f + a.g*s - c*s*s/2
+	lb = b.f + b.g*(s-h) - c*(s-h)*(s-h)/2
+	return min(a.f, b.f, la, lb), a.u + s
+}
+
+// search returns the extremes of the deviation from the five coarse
+// samples (fraction i/4, deviation fs, slope gs, foot ts) and c, the bound
+// on |f″| in length units. convex says the deviation is convex (a line):
+// its maximum is then at a sample and the minorants need no curvature
+// term. It reports false when it would need more than devSearchCap samples.
+func (v *devEval) search(fs, gs, ts *[devFirst + 1]float64, c float64, convex bool) (lo, hi float64, ok bool) {
+	var ss [devSearchCap]devSample
+	n := devFirst + 1
+	for i := range n {
+		ss[i] = devSample{u: float64(i) / devFirst, f: fs[i], g: gs[i], t: ts[i]}
+	}
+	cu := c * v.length * v.length // bound on |d²f/du²|
+	cLow := cu
+	if convex {
+		cLow = 0
+	}
+	for {
+		lo, hi = ss[0].f, ss[0].f
+		for _, s := range ss[1:n] {
+			lo, hi = min(lo, s.f), max(hi, s.f)
+		}
+		tol := devMissShare * math.Max(hi-lo, devFloor*v.size)
+		worst, at, x := 0.0, -1, 0.0
+		for i := 0; i+1 < n; i++ {
+			a, b := ss[i], ss[i+1]
+			if l, m := lowerBound(a, b, cLow); lo-tol-l > worst {
+				worst, at, x = lo-tol-l, i, m
+			}
+			if !convex {
+				a.f, a.g, b.f, b.g = -a.f, -a.g, -b.f, -b.g
+				if l, m := lowerBound(a, b, cu); -l-hi-tol > worst {
+					worst, at, x = -l-hi-tol, i, m
+				}
+			}
+		}
+		if at < 0 {
+			return lo, hi, true
+		}
+		if n == len(ss) || math.IsNaN(worst) {
+			return 0, 0, false
+		}
+		a, b := ss[at], ss[at+1]
+		h := b.u - a.u
+		x = math.Min(math.Max(x, a.u+0.1*h), b.u-0.1*h)
+		w := (x - a.u) / h
+		guess := a.t + w*math.Remainder(b.t-a.t, 2*math.Pi)
+		ref, du := a.f, x-a.u
+		if w > 0.5 {
+			ref, du = b.f, b.u-x
+		}
+		f, t := v.track(x, guess, du, ref)
+		g, _ := v.slope(x, f)
+		copy(ss[at+2:n+1], ss[at+1:n])
+		ss[at+1] = devSample{u: x, f: f, g: g, t: t}
+		n++
+	}
+}
+
+// newton returns the deviation at the own-frame point (qx, qy) and its
+// foot, by Newton's method on the foot parameter from t0, or false.
+// g(t) = (q − p(t))·p′(t) vanishes at the foot; g′ = −(q − p)·p − |p′|²
+// in the own frame (p″ = −p) is kept below −|p′|²/4 so that the root is a
+// clear local minimum of the distance. Near the foot the signed distance
+// (q − p(t))·n(t) is wrong only in the second order of the error δ in t:
+// by ½·κ|p′|²·(1 + g·κ)·δ² for a point at distance g from the ellipse
+// (expand p and n to second order; n·n″ = −|n′|²), so once the next step
+// δ makes that negligible the iteration ends without another evaluation.
+//
+// A root found is the nearest point whatever the start: the point is
+// q = p(t) + λ·n(t) with λ its signed distance along the normal, and a
+// point on the outward normal of a convex curve (λ ≥ 0), or on the inward
+// one less deep than the reach b²/a, has the foot of that normal as its
+// unique nearest point (Federer 1959). Only answers with λ above half the
+// reach below the curve are accepted.
+//
+// Small steps turn the sine and cosine of the parameter by the angle-sum
+// formulas with short Taylor series (|δ| < 1e-3: the first terms left
+// out, δ⁷/5040 for the sine and δ⁶/720 for the cosine, are below 1e-20)
+// instead of calling math.Sincos again.
+func (v *devEval) newton(qx, qy, t0 float64) (f, t float64, ok bool) {
+	t = t0
+	sn, cs := math.Sincos(t)
+	for k := 0; k < 8; k++ {
+		px, py := v.rx*cs, v.ry*sn
+		vx, vy := -v.rx*sn, v.ry*cs
+		wx, wy := qx-px, qy-py
+		g := wx*vx + wy*vy
+		speed2 := vx*vx + vy*vy
+		gp := -(wx*px + wy*py) - speed2
+		if !(gp < -0.25*speed2) {
+			return 0, 0, false // too deep inside: the foot is not well defined here
+		}
+		step := g / gp
+		if math.Abs(step) < 1e-6 {
+			nx, ny := v.ry*cs, v.rx*sn
+			speed := math.Sqrt(nx*nx + ny*ny)
+			sd := (wx*nx + wy*ny) / speed
+			kv2 := v.rx * v.ry / speed // κ·|p′|²
+			if 0.5*kv2*math.Abs(1+sd*kv2/speed2)*step*step <= 1e-17*v.size {
+				if !(sd > -0.5*v.reach) {
+					return 0, 0, false
+				}
+				v.footSin, v.footCos = sn, cs
+				return sd - v.d, t, true
+			}
+		}
+		if math.Abs(step) > 0.5 {
+			return 0, 0, false
+		}
+		t -= step
+		if d := -step; math.Abs(d) < 1e-3 {
+			d2 := d * d
+			sd := d * (1 - d2/6*(1-d2/20))
+			cd := 1 - d2/2*(1-d2/12)
+			sn, cs = sn*cd+cs*sd, cs*cd-sn*sd
+		} else {
+			sn, cs = math.Sincos(t)
+		}
+	}
+	return 0, 0, false
+}
+
+// start returns the deviation at the start of the segment and its foot:
+// Newton's method from the parameter of the point scaled onto a circle,
+// which lies close to the foot for a point near the curve, or the exact
+// method when that does not settle.
+func (v *devEval) start() (f, t float64) {
+	x, y := v.point(0)
+	qx, qy := v.local(x, y)
+	if f, t, ok := v.newton(qx, qy, math.Atan2(qy*v.rx, qx*v.ry)); ok {
+		return f, t
+	}
+	return v.exact(0)
+}
