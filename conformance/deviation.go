@@ -148,8 +148,12 @@ func SegmentDeviation(curve ellipse.Parallel, s toolpath.Segment) (lo, hi float6
 	}
 	us, k := ev.medialCrossings()
 	if k == 0 {
-		if c, ok := ev.bendBound(&ts, &ks, flo, fhi, maxTan); ok {
-			if lo, hi, ok := ev.search(&fs, &gs, &ts, c, !ev.arc); ok {
+		if !ev.arc {
+			if lo, hi, ok := ev.search(&fs, &gs, &ts, nil); ok {
+				return lo, hi
+			}
+		} else if b, ok := ev.bendBound(&ts, &ks, flo, fhi, maxTan); ok {
+			if lo, hi, ok := ev.search(&fs, &gs, &ts, &b); ok {
 				return lo, hi
 			}
 		}

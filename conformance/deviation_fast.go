@@ -59,38 +59,48 @@ func lowerBound(a, b devSample, c float64) (lb, at float64) {
 }
 
 // search returns the extremes of the deviation from the five coarse
-// samples (fraction i/4, deviation fs, slope gs, foot ts) and c, the bound
-// on |f″| in length units. convex says the deviation is convex (a line):
-// its maximum is then at a sample and the minorants need no curvature
-// term. It reports false when it would need more than devSearchCap samples.
-func (v *devEval) search(fs, gs, ts *[devFirst + 1]float64, c float64, convex bool) (lo, hi float64, ok bool) {
+// samples (fraction i/4, deviation fs, slope gs, foot ts) and bend, the
+// bound on |f″| in length units; for a line, whose deviation is convex,
+// bend is nil: its maximum is then at a sample and the minorants need no
+// curvature term.
+// It reports false when it would need more than devSearchCap samples.
+func (v *devEval) search(fs, gs, ts *[devFirst + 1]float64, bend *devBend) (lo, hi float64, ok bool) {
 	var ss [devSearchCap]devSample
+	var bs [devSearchCap]devBounds // bs[i]: of the interval from ss[i] to ss[i+1]
 	n := devFirst + 1
+	lo, hi = fs[0], fs[0]
 	for i := range n {
 		ss[i] = devSample{u: float64(i) / devFirst, f: fs[i], g: gs[i], t: ts[i]}
+		lo, hi = min(lo, fs[i]), max(hi, fs[i])
 	}
-	cu := c * v.length * v.length // bound on |d²f/du²|
-	cLow := cu
-	if convex {
-		cLow = 0
+	l2 := v.length * v.length // f″ in u is L² times f″ in length
+	// bounds returns the bounds over the interval from a to b.
+	bounds := func(a, b devSample) devBounds {
+		var r devBounds
+		if bend == nil {
+			r.lo, r.loAt = lowerBound(a, b, 0)
+			r.hi, r.hiAt = max(a.f, b.f), (a.u+b.u)/2
+			return r
+		}
+		c := bend.c * l2
+		r.lo, r.loAt = lowerBound(a, b, c)
+		a.f, a.g, b.f, b.g = -a.f, -a.g, -b.f, -b.g
+		r.hi, r.hiAt = lowerBound(a, b, c)
+		r.hi = -r.hi
+		return r
+	}
+	for i := 0; i+1 < n; i++ {
+		bs[i] = bounds(ss[i], ss[i+1])
 	}
 	for {
-		lo, hi = ss[0].f, ss[0].f
-		for _, s := range ss[1:n] {
-			lo, hi = min(lo, s.f), max(hi, s.f)
-		}
 		tol := devMissShare * math.Max(hi-lo, devFloor*v.size)
 		worst, at, x := 0.0, -1, 0.0
-		for i := 0; i+1 < n; i++ {
-			a, b := ss[i], ss[i+1]
-			if l, m := lowerBound(a, b, cLow); lo-tol-l > worst {
-				worst, at, x = lo-tol-l, i, m
+		for i, b := range bs[:n-1] {
+			if e := lo - tol - b.lo; e > worst {
+				worst, at, x = e, i, b.loAt
 			}
-			if !convex {
-				a.f, a.g, b.f, b.g = -a.f, -a.g, -b.f, -b.g
-				if l, m := lowerBound(a, b, cu); -l-hi-tol > worst {
-					worst, at, x = -l-hi-tol, i, m
-				}
+			if e := b.hi - hi - tol; e > worst {
+				worst, at, x = e, i, b.hiAt
 			}
 		}
 		if at < 0 {
@@ -110,11 +120,20 @@ func (v *devEval) search(fs, gs, ts *[devFirst + 1]float64, c float64, convex bo
 		}
 		f, t := v.track(x, guess, du, ref)
 		g, _ := v.slope(x, f)
+		m := devSample{u: x, f: f, g: g, t: t}
 		copy(ss[at+2:n+1], ss[at+1:n])
-		ss[at+1] = devSample{u: x, f: f, g: g, t: t}
+		copy(bs[at+2:n], bs[at+1:n-1])
+		ss[at+1] = m
+		bs[at] = bounds(a, m)
+		bs[at+1] = bounds(m, b)
 		n++
+		lo, hi = min(lo, f), max(hi, f)
 	}
 }
+
+// devBounds holds the bounds of the deviation over one interval of the
+// bounded search and the fractions where they are reached.
+type devBounds struct{ lo, loAt, hi, hiAt float64 }
 
 // newton returns the deviation at the own-frame point (qx, qy) and its
 // foot, by Newton's method on the foot parameter from t0, or false.

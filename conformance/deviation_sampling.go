@@ -9,24 +9,29 @@ import "math"
 // curvatures kappas there, the range [flo, fhi] of their deviations and the
 // largest tan θ among them.
 func (v *devEval) intervals(ts, kappas *[devFirst + 1]float64, flo, fhi, maxTan float64) int {
-	c, ok := v.bendBound(ts, kappas, flo, fhi, maxTan)
+	b, ok := v.bendBound(ts, kappas, flo, fhi, maxTan)
 	if !ok {
 		return devMaxIntervals
 	}
 	r := math.Max(fhi-flo, devFloor*v.size)
-	nf := math.Ceil(v.length * math.Sqrt(c/(8*devMissShare*r)) / devFirst)
+	nf := math.Ceil(v.length * math.Sqrt(b.c/(8*devMissShare*r)) / devFirst)
 	if !(nf < devMaxIntervals/devFirst) {
 		return devMaxIntervals
 	}
 	return max(1, int(nf)) * devFirst
 }
 
-// bendBound returns c, the bound on |f″| along the whole segment (f the
-// deviation, parameterised by length) described in SegmentDeviation, from
-// the coarse samples: their feet ts and the curvatures kappas there, the
+// devBend is the bound on |f″| along a segment (f the deviation,
+// parameterised by length) described in SegmentDeviation.
+type devBend struct {
+	c float64 // the bound over the whole segment
+}
+
+// bendBound returns the bound on |f″| along the whole segment from the
+// coarse samples: their feet ts and the curvatures kappas there, the
 // range [flo, fhi] of their deviations and the largest tan θ among them.
 // It reports false near the medial axis, where there is no useful bound.
-func (v *devEval) bendBound(ts, kappas *[devFirst + 1]float64, flo, fhi, maxTan float64) (float64, bool) {
+func (v *devEval) bendBound(ts, kappas *[devFirst + 1]float64, flo, fhi, maxTan float64) (devBend, bool) {
 	// Curvature range of the intended curve over the span of the feet.
 	kl, kh := math.Inf(1), math.Inf(-1)
 	for i := 0; i <= devFirst; i++ {
@@ -52,7 +57,7 @@ func (v *devEval) bendBound(ts, kappas *[devFirst + 1]float64, flo, fhi, maxTan 
 	den := 1 + (flo-r1)*kh
 	den2 := 1 + (fhi+r1)*kl
 	if !(den > 0.05) || !(den2 > 0.05) {
-		return 0, false // near the medial axis: no useful bound
+		return devBend{}, false // near the medial axis: no useful bound
 	}
 	keh, kel := kh/den, kl/den2
 	// Which way an arc bends relative to the curve, seen at its middle.
@@ -88,7 +93,7 @@ func (v *devEval) bendBound(ts, kappas *[devFirst + 1]float64, flo, fhi, maxTan 
 	if !sure {
 		c = math.Max(c, curvatureBound(kel, keh, -ks, cmin))
 	}
-	return c, true
+	return devBend{c: c}, true
 }
 
 // curvatureBound returns max |k·c² − ks·c| over k in [kl, kh] and c in
