@@ -451,3 +451,45 @@ func BenchmarkSegmentDeviation(b *testing.B) {
 		})
 	}
 }
+
+// TestLowerBoundHoldsAndIsTight: the interval bound of the bounded search
+// never exceeds the least value of a function whose second derivative
+// stays within ±c, and for f″ = −c (the worst case the bound is built
+// for) it equals the least value.
+func TestLowerBoundHoldsAndIsTight(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		p0 := rapid.Float64Range(-1, 1).Draw(t, "p0")
+		p1 := rapid.Float64Range(-3, 3).Draw(t, "p1")
+		p2 := rapid.Float64Range(-2, 2).Draw(t, "p2")
+		p3 := rapid.Float64Range(-0.5, 0.5).Draw(t, "p3")
+		w := rapid.Float64Range(0, 6).Draw(t, "omega")
+		worst := rapid.Bool().Draw(t, "worst case")
+		f := func(u float64) (float64, float64) {
+			return p0 + p1*u + p2*u*u + p3*math.Sin(w*u), p1 + 2*p2*u + p3*w*math.Cos(w*u)
+		}
+		c := 2*math.Abs(p2) + math.Abs(p3)*w*w
+		if worst {
+			c = 2 * math.Abs(p2)
+			f = func(u float64) (float64, float64) { return p0 + p1*u - c/2*u*u, p1 - c*u }
+		}
+		a := rapid.Float64Range(-1, 1).Draw(t, "a")
+		b := a + rapid.Float64Range(1e-3, 2).Draw(t, "width")
+		fa, ga := f(a)
+		fb, gb := f(b)
+		lb, at := lowerBound(devSample{u: a, f: fa, g: ga}, devSample{u: b, f: fb, g: gb}, c)
+		if !(at >= a && at <= b) {
+			t.Fatalf("bound reached at %g, outside [%g, %g]", at, a, b)
+		}
+		least := math.Inf(1)
+		for i := 0; i <= 2000; i++ {
+			v, _ := f(a + (b-a)*float64(i)/2000)
+			least = math.Min(least, v)
+		}
+		if lb > least+1e-12 {
+			t.Fatalf("bound %.15g above the least value %.15g", lb, least)
+		}
+		if worst && math.Abs(lb-least) > 1e-9 {
+			t.Fatalf("worst case: bound %.15g, least value %.15g", lb, least)
+		}
+	})
+}
