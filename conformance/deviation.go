@@ -154,27 +154,37 @@ func SegmentDeviation(curve ellipse.Parallel, s toolpath.Segment) (lo, hi float6
 	// Coarse pass: five points, the first by the exact distance and the
 	// rest tracked from it.
 	var fs, ts, ks, gs [devFirst + 1]float64
+	// A line needs no bound on f″ (its deviation is convex), so the
+	// curvatures and angles at the samples are taken for an arc only, or
+	// for a line that goes on to the dense pass.
+	var maxTan float64 // largest tan θ at the samples
 	fs[0], ts[0] = ev.start()
-	ks[0] = ev.kappa()
 	var rate float64
 	gs[0], rate = ev.slope(0, fs[0])
 	flo, fhi := fs[0], fs[0]
-	maxTan := ev.misalignment(0) // largest tan θ at the samples
+	if ev.arc {
+		ks[0], maxTan = ev.kappa(), ev.misalignment(0)
+	}
 	for i := 1; i <= devFirst; i++ {
 		u := float64(i) / devFirst
 		fs[i], ts[i] = ev.track(u, ts[i-1]+rate/devFirst, 1.0/devFirst, fs[i-1])
-		ks[i] = ev.kappa()
 		gs[i], rate = ev.slope(u, fs[i])
 		flo, fhi = math.Min(flo, fs[i]), math.Max(fhi, fs[i])
-		maxTan = math.Max(maxTan, ev.misalignment(u))
+		if ev.arc {
+			ks[i], maxTan = ev.kappa(), math.Max(maxTan, ev.misalignment(u))
+		}
 	}
 	us, k := ev.medialCrossings()
-	if k == 0 {
-		if !ev.arc {
+	if !ev.arc {
+		if k == 0 {
 			if lo, hi, ok := ev.search(&fs, &gs, &ts, nil); ok {
 				return lo, hi
 			}
-		} else if b, ok := ev.bendBound(&ts, &ks, flo, fhi, maxTan); ok {
+		}
+		maxTan = ev.shape(&ts, &ks)
+	}
+	if k == 0 && ev.arc {
+		if b, ok := ev.bendBound(&ts, &ks, flo, fhi, maxTan); ok {
 			if lo, hi, ok := ev.search(&fs, &gs, &ts, &b); ok {
 				return lo, hi
 			}

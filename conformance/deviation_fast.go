@@ -211,3 +211,14 @@ func (v *devEval) start() (f, t float64) {
 	}
 	return v.exact(0)
 }
+
+// shape fills ks with the curvature of the intended curve at the feet ts
+// of the coarse samples and returns the largest tan θ among them.
+func (v *devEval) shape(ts, ks *[devFirst + 1]float64) (maxTan float64) {
+	for i, t := range ts {
+		v.footSin, v.footCos = math.Sincos(t)
+		ks[i] = v.kappa()
+		maxTan = math.Max(maxTan, v.misalignment(float64(i)/devFirst))
+	}
+	return maxTan
+}
