@@ -101,7 +101,7 @@ func TestDashKeepsThePattern(t *testing.T) {
 			period := l / float64(n)
 			for k, d := range st {
 				for i, g := range d {
-					lo, hi := opsDeviation(curve, g)
+					lo, hi := deviationRange(curve, g)
 					if lo < -s.Tol || hi > s.Tol {
 						t.Errorf("dash %d segment %d deviates %g..%g, outside ±%g", k, i, lo, hi, s.Tol)
 					}
@@ -216,7 +216,7 @@ func TestDashPropertyPattern(t *testing.T) {
 		}
 		for k, d := range st {
 			for _, g := range d {
-				if lo, hi := opsDeviation(c, g); lo < -s.Tol || hi > s.Tol {
+				if lo, hi := deviationRange(c, g); lo < -s.Tol || hi > s.Tol {
 					t.Fatalf("dash %d deviates %g..%g, outside ±%g", k, lo, hi, s.Tol)
 				}
 			}

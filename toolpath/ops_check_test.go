@@ -19,49 +19,6 @@ type opsTB interface {
 	Fatalf(format string, args ...any)
 }
 
-// opsDeviation returns the least and greatest signed distance of segment
-// s from the curve c (+ outward): 16 even samples, then a golden-section
-// search around the extreme samples. For the smooth distance along a line
-// or an arc near a convex curve this finds the extremes to far better
-// than the slacks the checks allow.
-func opsDeviation(c ellipse.Parallel, s Segment) (lo, hi float64) {
-	e := c.Ellipse()
-	dev := func(u float64) float64 {
-		p := s.At(u)
-		return e.SignedDistance(ellipse.Point{X: p.X, Y: p.Y}) - c.Offset()
-	}
-	const n = 16
-	var v [n + 1]float64
-	jlo, jhi := 0, 0
-	for j := 0; j <= n; j++ {
-		v[j] = dev(float64(j) / n)
-		if v[j] < v[jlo] {
-			jlo = j
-		}
-		if v[j] > v[jhi] {
-			jhi = j
-		}
-	}
-	refine := func(j int, sign float64) float64 {
-		a := math.Max(0, float64(j-1)/n)
-		b := math.Min(1, float64(j+1)/n)
-		best := sign * v[j]
-		for i := 0; i < 24; i++ {
-			m1 := a + (b-a)*0.381966011250105
-			m2 := a + (b-a)*0.618033988749895
-			f1, f2 := sign*dev(m1), sign*dev(m2)
-			best = math.Max(best, math.Max(f1, f2))
-			if f1 > f2 {
-				b = m2
-			} else {
-				a = m1
-			}
-		}
-		return sign * best
-	}
-	return refine(jlo, -1), refine(jhi, 1)
-}
-
 // movesXY reports whether a segment moves in the XY plane.
 func movesXY(s Segment) bool {
 	return s.Kind == Arc || (s.Kind == Line && (s.Start.X != s.End.X || s.Start.Y != s.End.Y))

@@ -100,7 +100,7 @@ func checkProfile(t opsTB, s ProfileSpec, p Path) {
 		if !x.cuts(g) || !movesXY(g) {
 			continue
 		}
-		lo, hi := opsDeviation(part, g)
+		lo, hi := deviationRange(part, g)
 		switch x.side {
 		case SideOutside:
 			if lo < x.r-slack {
@@ -127,7 +127,7 @@ func checkProfile(t opsTB, s ProfileSpec, p Path) {
 			continue
 		}
 		contour = append(contour, g)
-		lo, hi := opsDeviation(x.curve, g)
+		lo, hi := deviationRange(x.curve, g)
 		if lo < zlo-slack || hi > zhi+slack {
 			t.Errorf("contour segment %d deviates %g..%g from the tool-centre curve, outside the %v zone [%g, %g]", i, lo, hi, x.zone, zlo, zhi)
 		}
@@ -213,7 +213,7 @@ func checkLeads(t opsTB, s ProfileSpec, x *expectProfile, p Path) {
 		if s.LeadRadius > 0 && math.Abs(g.Radius-s.LeadRadius) > slack {
 			t.Errorf("lead %d has radius %g, asked for %g", i, g.Radius, s.LeadRadius)
 		}
-		lo, hi := opsDeviation(e.Curve(), g)
+		lo, hi := deviationRange(e.Curve(), g)
 		switch x.side {
 		case SideInside:
 			if hi > -x.r+slack {
