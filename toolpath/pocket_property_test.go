@@ -28,7 +28,8 @@ func drawPocket(t *rapid.T) toolpath.PocketSpec {
 	// At least a 25th of the widest, so that a case has tens of rings, not
 	// thousands; small ellipses still reach the narrowest tool, 2·Tol.
 	narrowest := math.Max(2*tol, widest/25)
-	tool := narrowest + (widest-narrowest)*rapid.Float64Range(0, 1).Draw(t, "tool share")
+	// The widest itself is refused (the limit is strict): stay a hair below.
+	tool := narrowest + (widest-narrowest)*rapid.Float64Range(0, 1).Draw(t, "tool share")*(1-1e-9)
 	stepOver := math.Max(tol, tool*rapid.Float64Range(0.2, 1).Draw(t, "stepover/tool"))
 	allowance := 0.0
 	if rapid.Bool().Draw(t, "allowance") {
