@@ -100,41 +100,26 @@ func (v Violation) Error() string {
 	return "line " + strconv.Itoa(v.Line) + ": " + v.Rule + ": " + v.Message
 }
 
-// Machine is the kind of machine a program is checked for.
-type Machine uint8
+// Machine is the kind of machine a program is checked for: the same type
+// as [toolpath.Machine] and [gcodeout.Machine], so one value goes from the
+// operation to the writer to the checker. What cuts:
+//
+//   - Router: a spindle cuts below Z0, the top of the stock.
+//   - Laser: the beam cuts while M3 or M4 is on with S > 0; Z is focus.
+//   - Plotter: the pen draws at or below Z0, the paper.
+//
+// In [Rules] the zero Machine means Router.
+type Machine = toolpath.Machine
 
+// The machine kinds, as in package toolpath.
 const (
-	// Router: a spindle cuts below Z0, the top of the stock.
-	Router Machine = iota
-	// Laser: the beam cuts while M3 or M4 is on with S > 0; Z is focus.
-	Laser
-	// Plotter: the pen draws at or below Z0, the paper.
-	Plotter
+	Router  = toolpath.Router
+	Laser   = toolpath.Laser
+	Plotter = toolpath.Plotter
 )
 
-// String returns "router", "laser" or "plotter".
-func (m Machine) String() string {
-	switch m {
-	case Laser:
-		return "laser"
-	case Plotter:
-		return "plotter"
-	}
-	return "router"
-}
-
-// ParseMachine returns the machine named s.
-func ParseMachine(s string) (Machine, bool) {
-	switch s {
-	case "router":
-		return Router, true
-	case "laser":
-		return Laser, true
-	case "plotter":
-		return Plotter, true
-	}
-	return 0, false
-}
+// ParseMachine returns the machine named s ("router", "laser", "plotter").
+func ParseMachine(s string) (Machine, bool) { return toolpath.ParseMachine(s) }
 
 // Box is the travel of a machine: the limits every point must stay
 // within. The Z limits apply only when HasZ.
@@ -205,6 +190,9 @@ func Check(p *Program, r Rules) []Violation { return CheckReport(p, r).Violation
 
 // CheckReport is [Check] with a [Summary] of the program.
 func CheckReport(p *Program, r Rules) Report {
+	if r.Machine == 0 {
+		r.Machine = Router
+	}
 	c := newCollector(r.MaxPerRule)
 	for _, v := range p.Problems {
 		c.add(v)

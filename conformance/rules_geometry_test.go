@@ -56,6 +56,9 @@ type job struct {
 
 // program writes the job as text, six decimals.
 func (j job) program(c ellipse.Parallel) string {
+	if j.machine == 0 {
+		j.machine = Router // as in Rules, the zero machine is a router
+	}
 	var b strings.Builder
 	f := func(v float64) string { return strconv.FormatFloat(v, 'f', 6, 64) }
 	pt := func(t, extra float64) (x, y float64) {

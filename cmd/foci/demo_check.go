@@ -56,9 +56,8 @@ func checkDemoProgram(p *demoPart, s demoShape, src []byte) (demoCheck, *conform
 	if err != nil {
 		return demoCheck{}, nil, err
 	}
-	m, _ := conformance.ParseMachine(p.machine.String())
 	box := conformance.Box{MinX: p.travel[0], MinY: p.travel[1], MaxX: p.travel[2], MaxY: p.travel[3]}
-	rules := conformance.Rules{Machine: m, SafeZ: p.safeZ, Travel: &box,
+	rules := conformance.Rules{Machine: p.machine, SafeZ: p.safeZ, Travel: &box,
 		Shape: &conformance.Shape{Curve: s.curve, Zone: s.zone, Tol: s.tol}}
 	rep := conformance.CheckReport(prog, rules)
 	c := demoCheck{Against: s.describe(p), Violations: []checkViolation{}, MaxDeviation: rep.Summary.MaxDeviation}

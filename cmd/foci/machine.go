@@ -190,7 +190,7 @@ func (f *machineFlags) setup(tol float64, g toolpath.Geometry, decimals int) too
 // caller adds the title and the header.
 func (f *machineFlags) config(u Units, tol float64, decimals int) gcodeout.Config {
 	c := gcodeout.Config{
-		Machine: map[toolpath.Machine]gcodeout.Machine{toolpath.Router: gcodeout.Router, toolpath.Laser: gcodeout.Laser, toolpath.Plotter: gcodeout.Plotter}[f.m],
+		Machine: f.m,
 		Units:   writerUnits(u), Decimals: decimals, Tolerance: tol,
 		Feed: f.feed, PlungeFeed: f.plunge, Title: f.title,
 	}
