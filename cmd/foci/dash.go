@@ -24,18 +24,8 @@ func runDash(e *env, args []string) error {
 	offset := fs.Float64("offset", 0, "signed `distance` of the parallel curve to dash (+ outward)")
 	var o markFlags
 	o.register(fs, &mf, false, "laser time in `seconds` with the beam on at each dot, or the pierce pause at the start of each dash (default 0.1 for dots, 0 for dashes)")
-	if err := parseFlags(fs, args, 0); err != nil {
-		return err
-	}
-	if !shape.given() {
-		return badFlag("size", "is required (for example -size 600x400)")
-	}
-	el, err := shape.ellipse()
+	el, u, err := parseOperation(fs, args, &shape, &mf, "")
 	if err != nil {
-		return err
-	}
-	u, _ := parseUnits(shape.units)
-	if err := mf.resolve(fs, u); err != nil {
 		return err
 	}
 	geom, _, err := cf.resolve(mf.set, u)

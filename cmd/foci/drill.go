@@ -72,18 +72,8 @@ func runDrill(e *env, args []string) error {
 	offset := fs.Float64("offset", 0, "signed `distance` of the parallel curve the points lie on (+ outward)")
 	var o markFlags
 	o.register(fs, &mf, true, "laser mark time in `seconds` with the beam on")
-	if err := parseFlags(fs, args, 0); err != nil {
-		return err
-	}
-	if !shape.given() {
-		return badFlag("size", "is required (for example -size 600x400)")
-	}
-	el, err := shape.ellipse()
+	el, u, err := parseOperation(fs, args, &shape, &mf, "")
 	if err != nil {
-		return err
-	}
-	u, _ := parseUnits(shape.units)
-	if err := mf.resolve(fs, u); err != nil {
 		return err
 	}
 	if *count < 1 || *count > toolpath.MaxCount {

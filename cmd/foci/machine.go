@@ -9,6 +9,7 @@ import (
 	"math"
 	"strings"
 
+	"github.com/focitools/foci/ellipse"
 	"github.com/focitools/foci/gcodeout"
 	"github.com/focitools/foci/toolpath"
 )
@@ -436,4 +437,29 @@ func rangeInt(name string, v, lo, hi int) error {
 		return badFlag(name, "%d is out of range; use %d to %d", v, lo, hi)
 	}
 	return nil
+}
+
+// parseOperation parses the flags of an operation command and resolves
+// what every operation shares: the shape (required), its units and the
+// machine flags. machine, when not empty, fixes the machine kind for a
+// command that has no -machine flag.
+func parseOperation(fs *flag.FlagSet, args []string, shape *shapeFlags, mf *machineFlags, machine string) (ellipse.Ellipse, Units, error) {
+	if err := parseFlags(fs, args, 0); err != nil {
+		return ellipse.Ellipse{}, "", err
+	}
+	if !shape.given() {
+		return ellipse.Ellipse{}, "", badFlag("size", "is required (for example -size 600x400)")
+	}
+	el, err := shape.ellipse()
+	if err != nil {
+		return ellipse.Ellipse{}, "", err
+	}
+	u, _ := parseUnits(shape.units)
+	if machine != "" {
+		mf.machine = machine
+	}
+	if err := mf.resolve(fs, u); err != nil {
+		return ellipse.Ellipse{}, "", err
+	}
+	return el, u, nil
 }

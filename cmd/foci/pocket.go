@@ -70,19 +70,8 @@ func runPocket(e *env, args []string) error {
 	for _, f := range pocketMachineFlags {
 		fs.Var(all.Lookup(f.name).Value, f.name, f.usage)
 	}
-	if err := parseFlags(fs, args, 0); err != nil {
-		return err
-	}
-	if !shape.given() {
-		return badFlag("size", "is required (for example -size 600x400)")
-	}
-	el, err := shape.ellipse()
+	el, u, err := parseOperation(fs, args, &shape, &mf, "router")
 	if err != nil {
-		return err
-	}
-	u, _ := parseUnits(shape.units)
-	mf.machine = "router"
-	if err := mf.resolve(fs, u); err != nil {
 		return err
 	}
 	geom, _, err := cf.resolve(mf.set, u)

@@ -59,18 +59,8 @@ func runProfile(e *env, args []string) error {
 	mf.int(fs, &o.passes, "passes", forLaser, 1, "laser passes `N`")
 	mf.float(fs, &o.dwell, "dwell", forLaser, 0, "laser pierce pause in `seconds` at each beam-on")
 	fs.Float64Var(&o.lead, "lead", 0, "`radius` of the lead-in and lead-out arcs on the waste side, 0 for none (default: router the tool diameter, laser ten kerfs; none on the line)")
-	if err := parseFlags(fs, args, 0); err != nil {
-		return err
-	}
-	if !shape.given() {
-		return badFlag("size", "is required (for example -size 600x400)")
-	}
-	el, err := shape.ellipse()
+	el, u, err := parseOperation(fs, args, &shape, &mf, "")
 	if err != nil {
-		return err
-	}
-	u, _ := parseUnits(shape.units)
-	if err := mf.resolve(fs, u); err != nil {
 		return err
 	}
 	geom, _, err := cf.resolve(mf.set, u)
