@@ -3,7 +3,6 @@ package main
 import (
 	"flag"
 	"fmt"
-	"io"
 	"math"
 
 	"github.com/focitools/foci/ellipse"
@@ -294,18 +293,9 @@ func newPocketDetails(s toolpath.PocketSpec, p toolpath.PocketPlan, cut float64)
 // finish writes the pictures, the report and the program, in that order,
 // and prints the summary with the pocket's layout on stderr.
 func (r *pocketReport) finish(e *env, mf *machineFlags, prog []byte, path toolpath.Path, pics pictureOptions) error {
-	if err := mf.pics.write(e, path, pics); err != nil {
+	if err := r.programReport.finishAs(e, mf, prog, path, pics, r); err != nil {
 		return err
 	}
-	if mf.report != "" {
-		if err := writeFileAtomic(e, mf.report, func(w io.Writer) error { return writeJSON(w, r) }); err != nil {
-			return err
-		}
-	}
-	if err := writeBytes(e, mf.out, prog); err != nil {
-		return err
-	}
-	r.summary(e.stderr)
 	d := &r.Pocket
 	fmt.Fprintf(e.stderr, "  %s, %s %.4g %s apart, %s entry; cut %.2f times the least for the area at this step-over\n",
 		pocketPlural(len(d.Levels), "level"), pocketPlural(len(d.Rings), "ring"), d.RingSpacing, r.Units, d.Entry, d.CutRatio)

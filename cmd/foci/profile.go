@@ -398,11 +398,17 @@ func rounded(s toolpath.Segment, decimals int) toolpath.Segment {
 // the program last, after everything has been checked and made in
 // memory, and prints the summary on stderr.
 func (r *programReport) finish(e *env, mf *machineFlags, prog []byte, path toolpath.Path, pics pictureOptions) error {
+	return r.finishAs(e, mf, prog, path, pics, r)
+}
+
+// finishAs is finish writing report (r or a report that embeds it) as
+// the JSON report.
+func (r *programReport) finishAs(e *env, mf *machineFlags, prog []byte, path toolpath.Path, pics pictureOptions, report any) error {
 	if err := mf.pics.write(e, path, pics); err != nil {
 		return err
 	}
 	if mf.report != "" {
-		if err := writeFileAtomic(e, mf.report, func(w io.Writer) error { return writeJSON(w, r) }); err != nil {
+		if err := writeFileAtomic(e, mf.report, func(w io.Writer) error { return writeJSON(w, report) }); err != nil {
 			return err
 		}
 	}
