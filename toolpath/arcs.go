@@ -371,10 +371,8 @@ func refineExtreme(x, v []float64, j int) float64 {
 		return y1
 	}
 	xv := -b / (2 * c)
-	if xv < x0 || xv > x2 {
-		if xv < math.Min(x0, x2) || xv > math.Max(x0, x2) {
-			return y1
-		}
+	if xv < math.Min(x0, x2) || xv > math.Max(x0, x2) {
+		return y1 // the vertex is outside the neighbours: no extreme there
 	}
 	return y1 + b*xv + c*xv*xv
 }
