@@ -218,7 +218,7 @@ func (a *Approximator) EstimateSegments() float64 {
 }
 
 // quickEstimate is a cheap N* for the segment-count guard: 4-point Gauss
-// on 16 panels per quarter, good to a few per cent except on the flattest
+// on 64 equal panels of the range, good to a few per cent except on the flattest
 // ellipses, where it errs low; the guard has a wide margin.
 func (a *Approximator) quickEstimate() float64 {
 	return lowerBoundFixed(&a.f, a.spec.Geometry, a.hi-a.lo, a.spec.From, a.tEnd)
