@@ -21,7 +21,8 @@ type DashSpec struct {
 	// On and Off are the lengths of a dash and of the gap after it,
 	// measured along the curve, before they are scaled to close evenly
 	// (see [DashPattern]). Off must be greater than zero; On = 0 asks for
-	// dots: a mark (see [Drill]) at the start of every period.
+	// dots: a mark (see [Drill]) at the start of every period; otherwise
+	// On must be at least Tol.
 	On, Off float64
 	// Clockwise runs the pattern clockwise: the same dashes, visited in
 	// the other order and each cut from its other end.
@@ -92,6 +93,9 @@ func Dash(dst Path, s DashSpec) (Path, error) {
 	n, on, _ := DashPattern(c.Length(), s.On, s.Off)
 	if n > MaxCount {
 		return dst, opLimit("Off", s.Off, c.Length()/MaxCount, ErrTooMany)
+	}
+	if s.On > 0 && s.On < s.Tol {
+		return dst, opLimit("On", s.On, s.Tol, ErrDashTooShort)
 	}
 	if s.On == 0 {
 		if _, err := s.Setup.checkMark("Peck", s.Depth, 0, 0, s.MarkSeconds); err != nil {

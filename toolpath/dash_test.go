@@ -162,6 +162,8 @@ func TestDashRefusals(t *testing.T) {
 		{"negative dash", DashSpec{Setup: plotter, Ellipse: e, On: -5, Off: 2}, "On", ErrNegative},
 		{"NaN gap", DashSpec{Setup: plotter, Ellipse: e, On: 5, Off: math.NaN()}, "Off", ErrNotFinite},
 		{"too many dashes", DashSpec{Setup: plotter, Ellipse: e, On: 1e-7, Off: 1e-7}, "Off", ErrTooMany},
+		{"dash shorter than the tolerance", DashSpec{Setup: plotter, Ellipse: e, On: 0.01, Off: 2}, "On", ErrDashTooShort},
+		{"dash of 1e-16", DashSpec{Setup: plotter, Ellipse: e, On: 1e-16, Off: 2}, "On", ErrDashTooShort},
 		{"depth on a plotter", DashSpec{Setup: plotter, Ellipse: e, On: 5, Off: 2, Depth: 1}, "Depth", ErrNotForMachine},
 		{"router without depth", DashSpec{Setup: Setup{Machine: Router, Tol: 0.05, SafeZ: 3}, Ellipse: e, On: 5, Off: 2}, "Depth", ErrNotPositive},
 		{"laser dots without time", DashSpec{Setup: Setup{Machine: Laser, Tol: 0.05}, Ellipse: e, Off: 2}, "MarkSeconds", ErrNotPositive},

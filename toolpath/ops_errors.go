@@ -56,6 +56,9 @@ var (
 	// ErrTooMany reports a count so large that the path would exhaust
 	// memory or the machine's buffer.
 	ErrTooMany = errors.New("too many: the path would be too long")
+	// ErrDashTooShort reports a dash shorter than the tolerance: it would
+	// be mostly the approximation's rounding, and very many of them.
+	ErrDashTooShort = errors.New("dash shorter than the tolerance (use 0 for dots); the limit is the shortest dash")
 	// ErrLimitOrder reports an envelope whose lower limit is above its
 	// upper one.
 	ErrLimitOrder = errors.New("lower limit above the upper limit")
