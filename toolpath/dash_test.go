@@ -199,6 +199,7 @@ func TestDashPropertyPattern(t *testing.T) {
 		l := c.Length()
 		s.Off = l * rapid.Float64Range(0.005, 0.5).Draw(t, "offShare")
 		s.On = l * rapid.Float64Range(0.002, 0.5).Draw(t, "onShare")
+		s.On = math.Max(s.On, s.Tol) // shorter dashes are refused (TestDashRefusals)
 		switch s.Machine = Machine(rapid.IntRange(1, 3).Draw(t, "machine")); s.Machine {
 		case Router:
 			s.SafeZ, s.Depth = 5, rapid.Float64Range(0.05, 3).Draw(t, "depth")
