@@ -47,12 +47,12 @@ func TestArcCountSweep(t *testing.T) {
 					}
 					segs += len(p)
 					nstar := LowerBound(s.Curve, Arcs, z, s.Tol, 0, 0)
-					if q := (float64(len(p)) - 4) / nstar; q > worst {
-						worst = q
-						at = z.String()
+					q := (float64(len(p)) - 4) / nstar
+					if math.IsNaN(q) || math.IsInf(q, 0) {
+						t.Fatalf("b/a %g offset %g %v: N* = %g", r, d, z, nstar)
 					}
-					if math.IsNaN(worst) {
-						t.Fatal("NaN ratio")
+					if q > worst {
+						worst, at = q, z.String()
 					}
 				}
 			}
