@@ -101,11 +101,7 @@ func runDash(e *env, args []string) error {
 	if mf.m == toolpath.Router {
 		cfg.Header.Operations = append(cfg.Header.Operations, fmt.Sprintf("each %s %s deep in one pass", fmtNum(o.depth), shape.units))
 	}
-	wr, err := newProgramWriter(cfg, "pen-up")
-	if err != nil {
-		return err
-	}
-	prog, err := renderProgram(wr, path)
+	prog, err := programFor(cfg, "pen-up", path)
 	if err != nil {
 		return err
 	}

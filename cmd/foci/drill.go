@@ -129,11 +129,7 @@ func runDrill(e *env, args []string) error {
 	case toolpath.Laser:
 		cfg.Header.Operations = append(cfg.Header.Operations, fmt.Sprintf("each mark %s s with the beam on at S%s", fmtNum(o.dwell), fmtNum(mf.power)))
 	}
-	wr, err := newProgramWriter(cfg, "pen-up")
-	if err != nil {
-		return err
-	}
-	prog, err := renderProgram(wr, path)
+	prog, err := programFor(cfg, "pen-up", path)
 	if err != nil {
 		return err
 	}

@@ -343,6 +343,16 @@ func newProgramWriter(cfg gcodeout.Config, penUpFlag string) (*gcodeout.Writer, 
 	return nil, badFlag(name, "%s", msg)
 }
 
+// programFor checks cfg (see newProgramWriter) and writes path as its
+// program into memory.
+func programFor(cfg gcodeout.Config, penUpFlag string, path toolpath.Path) ([]byte, error) {
+	wr, err := newProgramWriter(cfg, penUpFlag)
+	if err != nil {
+		return nil, err
+	}
+	return renderProgram(wr, path)
+}
+
 // renderProgram writes path as the program of wr into memory.
 func renderProgram(wr *gcodeout.Writer, path toolpath.Path) ([]byte, error) {
 	var buf bytes.Buffer

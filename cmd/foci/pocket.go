@@ -102,11 +102,7 @@ func runPocket(e *env, args []string) error {
 	cfg.Header.Tool = fmt.Sprintf("%s %s cutter, centre at least %s %s inside the line", fmtNum(spec.Tool), shape.units, fmtNum(spec.Tool/2), shape.units)
 	cfg.Header.Tolerance = zoneText(toolpath.Inside, cf.tol, shape.units) + " of each ring and of the wall pass"
 	cfg.Header.Operations = pocketOperations(spec, plan, shape.units)
-	wr, err := newProgramWriter(cfg, "safe-z")
-	if err != nil {
-		return err
-	}
-	prog, err := renderProgram(wr, path)
+	prog, err := programFor(cfg, "safe-z", path)
 	if err != nil {
 		return err
 	}

@@ -98,11 +98,7 @@ func runProfile(e *env, args []string) error {
 	cfg.Header.Tolerance = zoneText(zone, cf.tol, shape.units) + map[toolpath.Machine]string{
 		toolpath.Router: " of the tool-centre path", toolpath.Laser: " of the beam path", toolpath.Plotter: " of the pen path"}[mf.m]
 	cfg.Header.Operations = o.operations(&mf, spec, side, shape.units)
-	wr, err := newProgramWriter(cfg, "pen-up")
-	if err != nil {
-		return err
-	}
-	prog, err := renderProgram(wr, path)
+	prog, err := programFor(cfg, "pen-up", path)
 	if err != nil {
 		return err
 	}
