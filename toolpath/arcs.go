@@ -18,8 +18,9 @@ import (
 // curve's normals: the point where the normal line at curve parameter t
 // meets the arc lies at signed distance λ(t) from the curve, with λ the
 // root of |q(t) + λn(t) − C|² = R² nearest zero; as t runs over the arc's
-// feet these points run over the whole arc. λ is sampled at arcSamples
-// points and its extremes refined by a parabola through the neighbours.
+// feet these points run over the whole arc. λ is sampled just densely
+// enough to find its extremes, which are then polished by successive
+// parabolas until two agree within a fraction of devMiss.
 //
 // Where an arc would be too flat to write soundly (a rise over its chord
 // below the rounding allowance, or a radius above arcMaxRadius times the largest radius of curvature of the
@@ -31,8 +32,13 @@ const (
 	arcSamples = 8
 	maxSamples = 128
 	devMiss    = 0.002
-	arcTarget  = 0.987 // aim at this fraction of the usable half-width
-	arcAccept  = 0.975 // accept anything in [arcAccept, arcLimit]
+	// A join on the steady pattern commits the next arc to humps as high
+	// as the last one's: steps aimed at the edge of the zone leave the
+	// next step no room once the curvature changes a little faster, so
+	// the chain aims lower and accepts a wide window (measured: aiming at
+	// 0.987 cost more segments than 0.92 and twice the trials).
+	arcTarget = 0.92 // aim at this fraction of the usable half-width
+	arcAccept = 0.8  // accept anything in [arcAccept, arcLimit]
 	// arcLimit keeps 1% of the half-width for what the sampled extremes
 	// may miss (devMiss is the estimate; the rest is margin).
 	arcLimit     = 0.99
@@ -43,6 +49,7 @@ const (
 // arcState holds the arc approximator's state between segments: O(1).
 type arcState struct {
 	lastDt float64 // parameter span of the last step
+	corr   float64 // the last step over its predicted span (0: none yet)
 	p, tan vec     // current point and unit tangent (direction of travel)
 	tp     float64 // parameter of the current point's foot
 	dev    float64 // its deviation
@@ -53,6 +60,7 @@ type arcState struct {
 	second  Segment
 	t0End   float64 // parameter where closing started
 	p0, t0  vec     // the point and tangent the path must end with
+	leg     float64 // closing biarcs' first leg over the equal-leg length
 	full    bool    // the whole closed curve is one full circle
 	circle  Segment
 }
@@ -156,6 +164,7 @@ func (g *arcGeom) angle(w vec) float64 {
 // t meets the arc (or line), as a signed distance from the curve; NaN when
 // the normal misses the arc. Of the two crossings with the full circle the
 // one on the arc is taken (nearest the curve if both are).
+
 func (f *frame) circleDev(t float64, g *arcGeom) float64 {
 	q, _, n := f.at(t, f.d)
 	if g.line {
@@ -196,12 +205,14 @@ func (f *frame) circleDev(t float64, g *arcGeom) float64 {
 //
 // The number of samples follows from the curve: along the arc the
 // deviation δ has δ″ ≈ κ − k (κ the curve's, k the arc's) and δ‴ ≈ κ′.
-// A parabola through the three samples around an extreme takes out the
-// quadratic part, so with samples h apart in arc length the refined
-// extreme misses by about |κ′|·h³/24; h is chosen so that this is below
-// devMiss of the zone's half-width, and so that the unrefined miss
-// |κ − k|·h²/8 stays below a quarter of the half-width (the parabola then
-// starts from the right neighbourhood). Uniform steps in the parameter
+// With samples h apart in arc length the miss of the best sample is
+// about |κ − k|·h²/8; h keeps it below a quarter of the half-width, so
+// the samples find the neighbourhood of every extreme, and polish then
+// refines each extreme with new evaluations until successive parabolas
+// agree within devMiss/4 of the half-width. Where the zone is wide beside
+// the radius of curvature (above 5%) the normals fan out across it and λ
+// is not smooth enough to polish; there h also keeps the one-parabola miss
+// |κ′|·h³/24 below devMiss of the half-width. Uniform steps in the parameter
 // t crowd the flat stretches of a flat ellipse and starve its tips, and
 // uniform steps in the normal angle do the opposite, so half the samples
 // come from each grid, merged in order.
@@ -231,7 +242,11 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi floa
 	dk := 4 * (kmax - kmin) / math.Max(length, 1e-300)
 	miss := devMiss * 0.5 * (a.hi - a.lo)
 	h := math.Inf(1)
-	if dk > 0 {
+	// Polishing the extremes needs them smooth and found; where the zone
+	// is wide against the radius of curvature the normals fan out across
+	// it and the deviation along them is not, so sample densely instead.
+	polish := (a.hi-a.lo+edge)*kmax < 0.05
+	if dk > 0 && !polish {
 		h = math.Cbrt(24 * miss / dk)
 	}
 	if dd > 0 {
@@ -267,9 +282,99 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi floa
 			jmin = j
 		}
 	}
+	if polish {
+		lo = math.Min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.25*miss))
+		hi = math.Max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.25*miss))
+		return lo, hi
+	}
 	lo = math.Min(lo, refineExtreme(ts[:m], v[:m], jmin))
 	hi = math.Max(hi, refineExtreme(ts[:m], v[:m], jmax))
 	return lo, hi
+}
+
+// polish returns the extreme (the largest when sign > 0, the smallest
+// when sign < 0) of the deviation near sample j: the vertex of the
+// parabola through the sample and its neighbours is evaluated and the
+// parabola refitted around the better point, until the prediction and the
+// evaluation agree within tol (each round shrinks the miss of a smooth
+// extreme by about the cube of the bracket's shrinking).
+func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64) float64 {
+	m := len(v)
+	if m < 3 {
+		return v[j]
+	}
+	var x0, x1, x2, y0, y1, y2 float64
+	switch j {
+	case 0, m - 1:
+		// An extreme at an end sample may still dip between it and its
+		// neighbour: try the parabola through the last three.
+		i := 1
+		if j == m-1 {
+			i = m - 2
+		}
+		xv, yv, ok := parabolaVertex(x[i-1], x[i], x[i+1], v[i-1], v[i], v[i+1])
+		if !ok || (xv-x[j])*(x[i]-xv) <= 0 || sign*yv <= sign*v[j] {
+			return v[j]
+		}
+		y := f.circleDev(xv, g)
+		if math.IsNaN(y) {
+			return sign * math.Inf(1)
+		}
+		if sign*y <= sign*v[j] {
+			return v[j] // the three-point fit promised a dip the curve has not
+		}
+		x0, x1, x2 = x[j], xv, x[i]
+		y0, y1, y2 = v[j], y, v[i]
+	default:
+		x0, x1, x2 = x[j-1], x[j], x[j+1]
+		y0, y1, y2 = v[j-1], v[j], v[j+1]
+	}
+	best := y1
+	for it := 0; it < 5; it++ {
+		xv, yv, ok := parabolaVertex(x0, x1, x2, y0, y1, y2)
+		if !ok {
+			return best
+		}
+		y := f.circleDev(xv, g)
+		if math.IsNaN(y) {
+			return sign * math.Inf(1)
+		}
+		if math.Abs(y-yv) <= tol {
+			return sign * math.Max(sign*y, math.Max(sign*yv, sign*best))
+		}
+		if sign*y > sign*best {
+			best = y
+			if xv < x1 == (x0 < x2) {
+				x2, y2 = x1, y1
+			} else {
+				x0, y0 = x1, y1
+			}
+			x1, y1 = xv, y
+		} else if xv < x1 == (x0 < x2) {
+			x0, y0 = xv, y
+		} else {
+			x2, y2 = xv, y
+		}
+	}
+	return best
+}
+
+// parabolaVertex returns the vertex of the parabola through three points
+// when it lies between the outer two.
+func parabolaVertex(x0, x1, x2, y0, y1, y2 float64) (xv, yv float64, ok bool) {
+	d01 := (y1 - y0) / (x1 - x0)
+	d12 := (y2 - y1) / (x2 - x1)
+	c := (d12 - d01) / (x2 - x0)
+	b := d01 + c*(x1-x0) // slope at x1
+	if c == 0 || math.IsNaN(c) || math.IsInf(c, 0) {
+		return 0, 0, false
+	}
+	h := -b / (2 * c)
+	xv = x1 + h
+	if xv <= math.Min(x0, x2) || xv >= math.Max(x0, x2) || xv == x1 {
+		return 0, 0, false
+	}
+	return xv, y1 + b*h + c*h*h, true
 }
 
 // curvatureRange returns the smallest and largest curvature of the
@@ -388,7 +493,10 @@ func arcTo(p, tg, q vec) (k float64, end vec) {
 	k = 2 * tg.cross(ch) / l2
 	u := ch.scale(1 / math.Sqrt(l2))
 	end = u.scale(2 * u.dot(tg)).sub(tg)
-	return k, end
+	// Renormalised: over thousands of joins the reflections' rounding
+	// would let the tangent's length drift, and a circle of radius R
+	// built on it would miss its own start by R times the drift.
+	return k, end.scale(1 / end.norm())
 }
 
 // trial is one candidate step.
@@ -460,29 +568,43 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	if s.closing {
 		return s.nextClosing(a)
 	}
-	f := &a.f
 	remaining := math.Abs(a.tEnd - s.tp)
 	if remaining <= 0 {
 		return Segment{}, false
 	}
-	dt := s.lastDt
-	if dt == 0 {
-		_, dk := f.curvature(s.tp, f.d)
-		l := math.Cbrt(62 * (a.hi - a.lo) / math.Max(math.Abs(dk), 1e-300))
-		dt = l / f.speed(s.tp, f.d)
+	// First guess: the steady pattern's span for the curvature change at
+	// the middle of the step, times what that prediction missed by on
+	// the last step.
+	pred := a.patternStep(s.tp + a.sigma*0.5*a.patternStep(s.tp))
+	corr := s.corr
+	if corr == 0 {
+		corr = 1
+	}
+	dt := corr * pred
+	if s.lastDt > 0 {
+		dt = math.Min(dt, 4*s.lastDt)
 	}
 	dt = math.Min(dt, math.Pi)
 	// Near the end, close with one biarc when it fits; when little is
-	// left, with the fewest biarcs that fit.
-	if remaining <= 3*dt {
+	// left, with the fewest biarcs that fit. Unequal legs give the join
+	// a second chance where the equal-leg biarc leaves the zone. What is
+	// "little" goes by the steps actually taken: the first guess runs
+	// far ahead where κ′ vanishes, at the vertices.
+	typical := dt
+	if s.lastDt > 0 {
+		typical = math.Min(dt, 1.5*s.lastDt)
+	}
+	if remaining <= 3*typical {
 		for n := 1; n <= 4; n++ {
-			if n > 1 && remaining > 0.8*dt {
+			if n > 1 && remaining > 0.8*typical {
 				break
 			}
-			if s.closeFits(a, n) {
-				s.closing, s.n, s.i, s.half = true, n, 0, false
-				s.t0End = s.tp
-				return s.nextClosing(a)
+			for _, leg := range [...]float64{1, 0.6, 1.6, 0.35, 2.8} {
+				if s.leg = leg; s.closeFits(a, n) {
+					s.closing, s.n, s.i, s.half = true, n, 0, false
+					s.t0End = s.tp
+					return s.nextClosing(a)
+				}
 			}
 		}
 	}
@@ -491,31 +613,47 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	bestDt := 0.0
 	// A step never reaches the end, which is the closing biarcs' job, and
 	// leaves them about one step.
-	maxDt := math.Max(0.5*remaining, remaining-dt)
+	maxDt := math.Max(0.5*remaining, remaining-typical)
+	// The ratio grows from the start's own use of the zone, r0, about as
+	// the cube of the step: search the step by regula falsi on that model
+	// between the longest step that fits and the shortest that does not.
+	m := a.mid()
+	r0 := math.Max((s.dev-m)/(a.hi-m), (m-s.dev)/(m-a.lo))
+	lo, rlo := 0.0, r0
+	hi, rhi := math.Inf(1), math.Inf(1)
 	for i := 0; i < arcMaxSteps; i++ {
 		dt = math.Min(dt, maxDt)
 		tr := a.try(s, s.tp+a.sigma*dt)
-		if tr.ratio <= arcLimit && dt > bestDt {
-			best, bestDt = tr, dt
-			if tr.ratio >= arcAccept || dt >= maxDt {
+		r := tr.ratio
+		if r <= arcLimit {
+			if dt > bestDt {
+				best, bestDt = tr, dt
+			}
+			if r >= arcAccept || dt >= maxDt {
 				break
 			}
+			if dt > lo {
+				lo, rlo = dt, r
+			}
+		} else if dt < hi {
+			hi, rhi = dt, r
 		}
-		r := tr.ratio
 		var next float64
 		switch {
-		case math.IsInf(r, 0) || math.IsNaN(r):
-			next = dt * 0.5
-		case r <= 0:
-			next = dt * 2
+		case math.IsInf(hi, 1):
+			next = 2 * lo
+			if rlo > r0 {
+				next = math.Min(next, lo*math.Cbrt((arcTarget-r0)/(rlo-r0)))
+			}
+			next = math.Max(next, 1.01*lo)
+		case math.IsInf(rhi, 0) || math.IsNaN(rhi) || rhi <= rlo:
+			next = 0.5 * (lo + hi)
 		default:
-			next = dt * math.Cbrt(arcTarget/r)
-			next = math.Max(math.Min(next, dt*2), dt*0.5)
+			l3, h3 := lo*lo*lo, hi*hi*hi
+			next = math.Cbrt(l3 + (arcTarget-rlo)*(h3-l3)/(rhi-rlo))
+			next = math.Max(lo+0.1*(hi-lo), math.Min(hi-0.1*(hi-lo), next))
 		}
-		if r > 1 {
-			next = math.Min(next, dt*0.995)
-		}
-		if bestDt > 0 && next <= bestDt {
+		if bestDt > 0 && hi-lo < 0.003*hi {
 			break
 		}
 		dt = next
@@ -529,30 +667,74 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	}
 	seg := s.segment(best)
 	s.lastDt = bestDt
+	s.corr = math.Max(0.25, math.Min(4, bestDt/pred))
 	s.p, s.tan, s.tp, s.dev = best.q, best.end, best.t1, best.dev1
 	return seg, true
 }
 
+// patternStep returns the parameter span of the steady pattern's arc at
+// t, whose humps reach arcTarget of the half-width (see endDeviation):
+// L = (72√3·w/|κ′|)^(1/3) for the half-width w.
+func (a *Approximator) patternStep(t float64) float64 {
+	f := &a.f
+	ke, dke := f.ellipseCurvature(t)
+	g1 := 1 + f.d*ke
+	kp := math.Abs(dke / (g1 * g1 * g1))
+	l := math.Cbrt(36 * math.Sqrt(3) * (a.hi - a.lo) * arcTarget / math.Max(kp, 1e-300))
+	return math.Min(l/f.speed(t, f.d), math.Pi)
+}
+
+// patternSlope returns the slope g of the deviation at the joins of the
+// periodic pattern over the arc of feet [t0, t1], g = (1/L)∫(s − L/2)κ ds,
+// and the length L, both along the middle of the zone. With φ(s) the
+// turning from the start, g = φ(L)/2 − mean φ; Simpson's rule on eight
+// panels in t. For κ changing at a steady κ′ it is κ′L²/12.
+func (a *Approximator) patternSlope(t0, t1 float64) (g, l float64) {
+	f := &a.f
+	off := f.d + a.mid()
+	const n = 8
+	h := (t1 - t0) / n
+	nu0 := f.normalAngle(t0)
+	var sl, si, phi float64
+	for i := 0; i <= n; i++ {
+		t := t0 + float64(i)*h
+		w := 2.0
+		switch {
+		case i == 0 || i == n:
+			w = 1
+		case i%2 == 1:
+			w = 4
+		}
+		v := f.speed(t, off)
+		phi = a.sigma * (f.normalAngle(t) - nu0)
+		sl += w * v
+		si += w * phi * v
+	}
+	if sl == 0 {
+		return 0, 0
+	}
+	return phi/2 - si/sl, sl * math.Abs(h) / 3
+}
+
 // endDeviation returns the deviation an arc ending at foot t1 should end
-// with. In the local model the deviation δ obeys δ” = κ − k along an arc
-// of curvature k, so with κ changing at κ' per unit length the chain of
-// arcs of length L that uses the zone best is periodic: it crosses the
-// middle m of the zone at every join with slope g = κ'L²/12, and swings to
-// ±κ'L³/(72√3) inside each arc (1.15 times the single-arc bound). With
-// u = δ − m and v = δ' − g at a join, an arc ending at u₁ gives
-// v₁ = −v₀ + 2(u₁ − u₀)/L, and the choice u₁ = u₀/2 + L·v₀/4 brings both to
-// zero in two arcs (both eigenvalues of the step are zero).
+// with. To first order in the deviation δ, δ″ = κ − k along an arc of
+// curvature k, so with κ changing at κ′ per unit length the chain of arcs
+// of length L that uses the zone best is periodic: it crosses the middle m
+// of the zone at every join with slope g = κ′L²/12, and swings to
+// ±κ′L³/(72√3) inside each arc (1.15 times the single-arc bound). For any
+// κ(s) over the arc the same holds with g = (1/L)∫(s − L/2)κ ds (see
+// patternSlope), which is what is used: on the long arcs of a coarse
+// tolerance κ′ is far from steady. With u = δ − m and v = δ′ − g at a
+// join, an arc ending at u₁ gives v₁ = −v₀ + 2(u₁ − u₀)/L, and the choice
+// u₁ = u₀/2 + L·v₀/4 brings both to zero in two arcs (both eigenvalues of
+// the step are zero).
 func (a *Approximator) endDeviation(s *arcState, t1 float64) float64 {
 	f := &a.f
 	m := a.mid()
 	_, tc, n := f.at(s.tp, f.d)
 	tau := tc.scale(a.sigma)
 	slope := s.tan.dot(n) / math.Max(s.tan.dot(tau), 1e-3)
-	ke, dke := f.ellipseCurvature(0.5 * (s.tp + t1))
-	g1 := 1 + f.d*ke
-	kp := a.sigma * dke / (g1 * g1 * g1)
-	l := math.Abs(t1-s.tp) * f.speed(s.tp, f.d)
-	g := kp * l * l / 12
+	g, l := a.patternSlope(s.tp, t1)
 	u1 := (s.dev-m)/2 + l*(slope-g)/4
 	lim := 0.8 * (a.hi - m)
 	return m + math.Max(-lim, math.Min(lim, u1))
@@ -567,7 +749,7 @@ func (s *arcState) closeFits(a *Approximator, n int) bool {
 	for i := 0; i < n; i++ {
 		t1 := tp + h
 		q, tq := s.piece(a, i, n, t1)
-		a1, a2, j, tj, ok := a.biarc(p, tg, q, tq, tp)
+		a1, a2, j, tj, ok := a.biarc(p, tg, q, tq, tp, s.leg)
 		if !ok {
 			return false
 		}
@@ -601,7 +783,7 @@ func ptOf(v vec) ellipse.Point { return ellipse.Point{X: v.x, Y: v.y} }
 // biarc from (p0, t0) to (p1, t1), the join point and the foot parameter
 // of the join, unwrapped next to ref (Bolton 1975: the join lies where the two tangent legs of
 // equal length α meet, |p0 + αt0 − (p1 − αt1)| = 2α).
-func (a *Approximator) biarc(p0, t0, p1, t1 vec, ref float64) (k1, k2 float64, j vec, tj float64, ok bool) {
+func (a *Approximator) biarc(p0, t0, p1, t1 vec, ref, leg float64) (k1, k2 float64, j vec, tj float64, ok bool) {
 	v := p1.sub(p0)
 	tt := t0.add(t1)
 	vt := v.dot(tt)
@@ -614,9 +796,20 @@ func (a *Approximator) biarc(p0, t0, p1, t1 vec, ref float64) (k1, k2 float64, j
 	if !(alpha > 0) || math.IsInf(alpha, 0) {
 		return 0, 0, vec{}, 0, false
 	}
+	beta := alpha
+	if leg != 1 {
+		// Unequal legs: |v − α·t0 − β·t1| = α + β gives
+		// β = (v·v − 2α·v·t0) / (2·v·t1 + 2α(1 − t0·t1)).
+		alpha *= leg
+		beta = (vv - 2*alpha*v.dot(t0)) / (2*v.dot(t1) + alpha*den)
+		if !(beta > 0) || math.IsInf(beta, 0) {
+			return 0, 0, vec{}, 0, false
+		}
+	}
 	a1 := p0.addScaled(t0, alpha)
-	a2 := p1.addScaled(t1, -alpha)
-	j = a1.add(a2).scale(0.5)
+	a2 := p1.addScaled(t1, -beta)
+	// The join divides the line between the legs' ends as α to β.
+	j = a1.scale(beta / (alpha + beta)).add(a2.scale(alpha / (alpha + beta)))
 	k1, _ = arcTo(p0, t0, j)
 	_, tjv := arcTo(p0, t0, j)
 	k2, _ = arcTo(j, tjv, p1)
@@ -644,7 +837,7 @@ func (s *arcState) nextClosing(a *Approximator) (Segment, bool) {
 	h := (a.tEnd - s.t0End) / float64(s.n)
 	t1 := s.t0End + h*float64(s.i+1)
 	q, tq := s.piece(a, s.i, s.n, t1)
-	k1, k2, j, _, ok := a.biarc(s.p, s.tan, q, tq, s.tp)
+	k1, k2, j, _, ok := a.biarc(s.p, s.tan, q, tq, s.tp, s.leg)
 	if !ok {
 		return Segment{}, false
 	}
