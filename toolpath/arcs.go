@@ -727,7 +727,11 @@ func (a *Approximator) patternSlope(t0, t1 float64) (g, l float64) {
 // tolerance κ′ is far from steady. With u = δ − m and v = δ′ − g at a
 // join, an arc ending at u₁ gives v₁ = −v₀ + 2(u₁ − u₀)/L, and the choice
 // u₁ = u₀/2 + L·v₀/4 brings both to zero in two arcs (both eigenvalues of
-// the step are zero).
+// the step are zero). That choice is scaled by 0.8, which moves one
+// eigenvalue to −0.2: a little slower to settle in the model, and less
+// thrown when the pattern slope changes from one arc to the next
+// (measured on the count sweep: 4% fewer arcs, and fewer in the worst
+// case of every shape but the roundest).
 func (a *Approximator) endDeviation(s *arcState, t1 float64) float64 {
 	f := &a.f
 	m := a.mid()
@@ -735,7 +739,7 @@ func (a *Approximator) endDeviation(s *arcState, t1 float64) float64 {
 	tau := tc.scale(a.sigma)
 	slope := s.tan.dot(n) / math.Max(s.tan.dot(tau), 1e-3)
 	g, l := a.patternSlope(s.tp, t1)
-	u1 := (s.dev-m)/2 + l*(slope-g)/4
+	u1 := 0.8 * ((s.dev-m)/2 + l*(slope-g)/4)
 	lim := 0.8 * (a.hi - m)
 	return m + math.Max(-lim, math.Min(lim, u1))
 }

@@ -28,7 +28,7 @@ func ExampleApproximate() {
 		fmt.Printf("%s: %d segments (lower bound %.1f)\n", g, len(path), nstar)
 	}
 	// Output:
-	// arcs: 29 segments (lower bound 16.2)
+	// arcs: 28 segments (lower bound 16.2)
 	// lines: 110 segments (lower bound 109.1)
 }
 
@@ -53,5 +53,5 @@ func ExampleApproximator_Next() {
 	fmt.Println("segments:", n, "decimals:", a.Decimals(), "error:", a.Err())
 	// Output:
 	// first: arc from (73.010, 10.000)
-	// segments: 29 decimals: 4 error: <nil>
+	// segments: 28 decimals: 4 error: <nil>
 }

@@ -47,6 +47,6 @@ func ExamplePocket() {
 	// levels at Z [-2 -4 -6]
 	// 32 rings from 3.3 to 77.6 mm in from the wall, 2.397 mm apart
 	// spine pass 133.3 mm long; ramp at 3 degrees
-	// wall pass: 35 segments at Z -6, from (-116.9900, 0.0000) back to (-116.9900, 0.0000)
+	// wall pass: 34 segments at Z -6, from (-116.9900, 0.0000) back to (-116.9900, 0.0000)
 	// ends with a retract to Z 5
 }
