@@ -50,6 +50,7 @@ var (
 	ErrInvalid   = errors.New("invalid curve")
 	ErrRange     = errors.New("parameter range must be finite, not empty, and at most one turn")
 	ErrStalled   = errors.New("approximation stopped: far more segments than the tolerance needs (please report the shape)")
+	ErrNoFit     = errors.New("approximation stopped: no tangent-continuous arc from the last join stays in the zone (please report the shape; lines, a smaller tolerance or the band zone may do)")
 	ErrOffset    = errors.New("the zone reaches inward past the minimum radius of curvature, where the parallel curves fold: use a smaller tolerance, a smaller inward offset or the outside zone")
 )
 
@@ -253,7 +254,8 @@ func (a *Approximator) Next() (Segment, bool) {
 }
 
 // Err returns nil, or the error that ended the stream early (a
-// [*SpecError] wrapping [ErrStalled]); check it after Next reports false.
+// [*SpecError] wrapping [ErrStalled] or [ErrNoFit]); check it after Next
+// reports false.
 func (a *Approximator) Err() error { return a.err }
 
 // Approximate appends the whole approximation of s to dst.

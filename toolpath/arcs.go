@@ -29,7 +29,7 @@ import (
 // interpolating biarcs onto the curve's own tangent.
 
 const (
-	arcSamples = 8
+	arcSamples = 6
 	maxSamples = 128
 	devMiss    = 0.002
 	// A join on the steady pattern commits the next arc to humps as high
@@ -44,20 +44,25 @@ const (
 	arcLimit     = 0.99
 	arcMaxRadius = 4 // times the curve's largest radius of curvature
 	arcMaxSteps  = 10
+	fanSamples   = 48 // points along an arc where the normals fan out
 )
 
 // arcState holds the arc approximator's state between segments: O(1).
 type arcState struct {
-	lastDt float64 // parameter span of the last step
-	corr   float64 // the last step over its predicted span (0: none yet)
-	p, tan vec     // current point and unit tangent (direction of travel)
-	tp     float64 // parameter of the current point's foot
-	dev    float64 // its deviation
+	lastDt    float64 // parameter span of the last step
+	corr      float64 // the last step over its predicted span (0: none yet)
+	p, tan    vec     // current point and unit tangent (direction of travel)
+	tp        float64 // parameter of the current point's foot
+	foot      foot    // and what the search needs there
+	dslope    float64 // the deviation's slope there, once haveSlope
+	haveSlope bool
+	dev       float64 // its deviation
 	// Closing: n biarcs onto the end, piece i, second half pending.
 	closing bool
 	n, i    int
 	half    bool
-	second  Segment
+	second  Segment // the second arc of a biarc, pending
+	pending bool    // second is due next (a rescue, not the closing)
 	t0End   float64 // parameter where closing started
 	p0, t0  vec     // the point and tangent the path must end with
 	leg     float64 // closing biarcs' first leg over the equal-leg length
@@ -85,7 +90,7 @@ func (s *arcState) start(a *Approximator) {
 		g = math.Max(-0.5, math.Min(0.5, g))
 		tan = tan.add(n.scale(g)).scale(1 / math.Hypot(1, g))
 	}
-	*s = arcState{p: p, tan: tan, tp: a.spec.From, dev: m}
+	*s = arcState{p: p, tan: tan, tp: a.spec.From, dev: m, foot: a.footAt(a.spec.From)}
 	q, tq, _ := f.at(a.tEnd, f.d+m)
 	s.p0, s.t0 = q, tq.scale(a.sigma)
 	if !a.spec.Open {
@@ -108,9 +113,10 @@ func (s *arcState) fullCircle(a *Approximator) {
 	u := q.sub(c)
 	u = u.scale(1 / u.norm())
 	start := c.addScaled(u, r)
-	g := arcGeom{c: c, r: r, sv: start.sub(c), dir: a.sigma, sweep: 2 * math.Pi, wide: math.Inf(1)}
+	g := arcGeom{c: c, r: r, lc: f.local(c), sv: f.localDir(start.sub(c)), dir: a.sigma, sweep: 2 * math.Pi, wide: math.Inf(1)}
 	d0 := f.circleDev(a.spec.From, &g)
-	lo, hi := a.devRange(a.spec.From, a.tEnd, d0, d0, &g)
+	f0, fm, f1 := a.footAt(a.spec.From), a.footAt(0.5*(a.spec.From+a.tEnd)), a.footAt(a.tEnd)
+	lo, hi := a.devRange(&f0, &fm, &f1, d0, d0, &g)
 	if m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo); !(lo >= m-w && hi <= m+w) {
 		return
 	}
@@ -120,38 +126,60 @@ func (s *arcState) fullCircle(a *Approximator) {
 }
 
 // arcGeom is a candidate arc (or line) ready for deviation sampling.
+// Sampling works in the ellipse's own frame (centre at the origin, axes
+// along x and y), which saves a rotation per sample.
 type arcGeom struct {
-	line  bool
-	p, nl vec     // start and its left normal (lines)
-	c     vec     // centre
-	r     float64 // radius
-	sv    vec     // start − centre
-	dir   float64 // +1 counter-clockwise, −1 clockwise
-	sweep float64 // turning from start to end, in (0, 2π]
-	wide  float64 // radius above which the near crossing is the arc's
+	line    bool
+	p, nl   vec     // start and its left normal (lines)
+	q       vec     // end
+	cw      vec     // start − centre, in the world
+	c       vec     // centre
+	lp, lnl vec     // p and nl in the own frame
+	lc      vec     // c in the own frame
+	r       float64 // radius
+	sv      vec     // start − centre, in the own frame
+	dir     float64 // +1 counter-clockwise, −1 clockwise
+	sweep   float64 // turning from start to end, in (0, 2π]
+	wide    float64 // radius above which the near crossing is the arc's
+	fan     bool    // the normals fan out across the zone: always check
+}
+
+// local returns the world point v in the ellipse's own frame.
+func (f *frame) local(v vec) vec {
+	return f.localDir(vec{v.x - f.cx, v.y - f.cy})
+}
+
+// localDir returns the world direction v in the ellipse's own frame.
+func (f *frame) localDir(v vec) vec {
+	return vec{f.cos*v.x + f.sin*v.y, -f.sin*v.x + f.cos*v.y}
 }
 
 // newArcGeom describes the arc from p with tangent tg and signed
 // curvature k that ends at q (k == 0: the line from p along tg).
 func (a *Approximator) newArcGeom(p, tg vec, k float64, q vec) arcGeom {
 	g := arcGeom{p: p, nl: tg.left(), wide: 16 * (a.hi - a.lo + math.Abs(a.lo) + math.Abs(a.hi))}
+	f := &a.f
+	g.q = q
 	if k == 0 {
 		g.line = true
+		g.lp, g.lnl = f.local(p), f.localDir(g.nl)
 		return g
 	}
 	g.c = p.addScaled(g.nl, 1/k)
+	g.lc = f.local(g.c)
 	g.r = math.Abs(1 / k)
-	g.sv = p.sub(g.c)
+	g.cw = p.sub(g.c)
+	g.sv = f.localDir(g.cw)
 	g.dir = math.Copysign(1, k)
-	g.sweep = g.angle(q.sub(g.c))
+	g.sweep = g.angle(f.localDir(q.sub(g.c)))
 	if g.sweep == 0 {
 		g.sweep = 2 * math.Pi
 	}
 	return g
 }
 
-// angle returns the turning from the start to the direction w about the
-// centre, in the arc's direction, in [0, 2π).
+// angle returns the turning from the start to the direction w (in the
+// own frame) about the centre, in the arc's direction, in [0, 2π).
 func (g *arcGeom) angle(w vec) float64 {
 	a := g.dir * math.Atan2(g.sv.cross(w), g.sv.dot(w))
 	if a < 0 {
@@ -166,27 +194,34 @@ func (g *arcGeom) angle(w vec) float64 {
 // one on the arc is taken (nearest the curve if both are).
 
 func (f *frame) circleDev(t float64, g *arcGeom) float64 {
-	q, _, n := f.at(t, f.d)
+	// The curve's point and outward normal in the own frame.
+	s, c := math.Sincos(t)
+	n := vec{f.ry * c, f.rx * s}
+	n = n.scale(1 / math.Sqrt(n.x*n.x+n.y*n.y))
+	q := vec{f.rx*c + f.d*n.x, f.ry*s + f.d*n.y}
 	if g.line {
-		den := n.dot(g.nl)
+		den := n.dot(g.lnl)
 		if den == 0 {
 			return math.NaN()
 		}
-		return g.p.sub(q).dot(g.nl) / den
+		return g.lp.sub(q).dot(g.lnl) / den
 	}
-	w := q.sub(g.c)
+	w := q.sub(g.lc)
 	b := n.dot(w)
-	wl := w.norm()
-	cc := (wl - g.r) * (wl + g.r)
+	// |w|² − r² loses no more than (|w| − r)(|w| + r) would: both carry
+	// the rounding of the centre, a few ulps of r.
+	cc := w.dot(w) - g.r*g.r
 	disc := b*b - cc
 	if disc < 0 {
 		return math.NaN()
 	}
 	sq := math.Sqrt(disc)
 	l1 := -cc / (b + math.Copysign(sq, b)) // nearest zero
-	if g.r > g.wide {
+	if g.r > g.wide && !g.fan {
 		// A circle far larger than the zone meets the normal once near
-		// the curve: that crossing is on the arc.
+		// the curve: that crossing is on the arc. Not so where the
+		// normals fan out (round a needle's tip a wide arc's circle meets
+		// them on both sides, and the near crossing may be off the arc).
 		return l1
 	}
 	l2 := -b - math.Copysign(sq, b) // the other crossing
@@ -200,8 +235,35 @@ func (f *frame) circleDev(t float64, g *arcGeom) float64 {
 	return math.NaN()
 }
 
-// devRange returns the extremes of the deviation of the arc g over feet
-// in [t0, t1], given the deviations d0 and d1 at the ends.
+// foot holds what the arc search needs at one curve parameter t, from
+// one Sincos and one Atan2: the intended curve's curvature, the normal
+// angle ν (see normalAngle) and the speeds |dq/dt| of the zone's outer
+// edge and of its middle.
+type foot struct {
+	t, k, nu, vEdge, vMid float64
+}
+
+// footAt returns the foot at t.
+func (a *Approximator) footAt(t float64) foot {
+	f := &a.f
+	n := math.Round(t / math.Pi)
+	s, c := math.Sincos(t - n*math.Pi)
+	v2 := f.rx*f.rx*s*s + f.ry*f.ry*c*c
+	v := math.Sqrt(v2)
+	ke := f.rx * f.ry / (v2 * v)
+	edge := math.Max(math.Abs(a.lo), math.Abs(a.hi))
+	return foot{
+		t:     t,
+		k:     ke / (1 + f.d*ke),
+		nu:    math.Atan2(f.rx*s, f.ry*c) + n*math.Pi,
+		vEdge: v + (f.d+edge)*f.rx*f.ry/v2,
+		vMid:  v + (f.d+a.mid())*f.rx*f.ry/v2,
+	}
+}
+
+// devRange returns the extremes of the deviation of the arc g over the
+// feet from f0 to f1 (fm halfway in t), given the deviations d0 and d1 at
+// the ends.
 //
 // The number of samples follows from the curve: along the arc the
 // deviation δ has δ″ ≈ κ − k (κ the curve's, k the arc's) and δ‴ ≈ κ′.
@@ -216,13 +278,14 @@ func (f *frame) circleDev(t float64, g *arcGeom) float64 {
 // t crowd the flat stretches of a flat ellipse and starve its tips, and
 // uniform steps in the normal angle do the opposite, so half the samples
 // come from each grid, merged in order.
-func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi float64) {
+func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (lo, hi float64) {
 	f := &a.f
+	t0, t1 := f0.t, f1.t
 	k := 0.0
 	if !g.line {
 		k = 1 / g.r
 	}
-	kmin, kmax := f.curvatureRange(t0, t1)
+	kmin, kmax := f.curvatureRange(f0, f1)
 	dd := math.Max(math.Abs(kmax-k), math.Abs(kmin-k))
 	// The arc's points sit on the curve's normals up to the zone's edge,
 	// where a step along the curve covers (1 + |edge|·κ) times the length.
@@ -231,10 +294,12 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi floa
 	// above enough: Simpson on its speed, or its turning times the largest
 	// radius there, whichever is larger (the first misses a tight tip
 	// between the nodes, the second a flat stretch).
-	tm := 0.5 * (t0 + t1)
-	off := f.d + edge
-	length := math.Abs(t1-t0) * (f.speed(t0, off) + 4*f.speed(tm, off) + f.speed(t1, off)) / 6
-	nu0, nu1 := f.normalAngle(t0), f.normalAngle(t1)
+	v0, vm, v1 := f0.vEdge, fm.vEdge, f1.vEdge
+	length := math.Abs(t1-t0) * (v0 + 4*vm + v1) / 6
+	nu0, nu1 := f0.nu, f1.nu
+	// Where the normal turns about as fast as the parameter one grid
+	// uniform in t serves; its widest spacing is where the speed peaks.
+	single := math.Abs(nu1-nu0) <= 2*math.Abs(t1-t0) && math.Abs(nu1-nu0) >= 0.5*math.Abs(t1-t0)
 	if kmin > 0 {
 		length = math.Max(length, math.Abs(nu1-nu0)*(1/kmin+edge))
 	}
@@ -246,23 +311,29 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi floa
 	// is wide against the radius of curvature the normals fan out across
 	// it and the deviation along them is not, so sample densely instead.
 	polish := (a.hi-a.lo+edge)*kmax < 0.05
+	g.fan = !polish
 	if dk > 0 && !polish {
 		h = math.Cbrt(24 * miss / dk)
 	}
 	if dd > 0 {
 		h = math.Min(h, math.Sqrt(8*0.25*0.5*(a.hi-a.lo)/dd))
 	}
-	n := arcSamples
-	if x := 2 * length / h; x > float64(n) {
+	// At least arcSamples from each grid used.
+	n := 2 * arcSamples
+	x := 2 * length / h
+	if single {
+		n = arcSamples
+		x = math.Abs(t1-t0) * math.Max(v0, math.Max(vm, v1)) / h
+	}
+	if x > float64(n) {
 		n = int(math.Min(x+1, maxSamples))
 	}
 	var ts, v [2*maxSamples + 2]float64
 	var m int
-	if dn, dt := math.Abs(nu1-nu0), math.Abs(t1-t0); dn > 2*dt || dn < dt/2 {
-		m = f.mergedGrid(t0, t1, n/2, ts[:0], true)
+	if single {
+		m = f.mergedGrid(t0, t1, nu0, nu1, n, ts[:0], false)
 	} else {
-		// The normal turns about as fast as the parameter: one grid.
-		m = f.mergedGrid(t0, t1, n, ts[:0], false)
+		m = f.mergedGrid(t0, t1, nu0, nu1, n/2, ts[:0], true)
 	}
 	lo, hi = math.Min(d0, d1), math.Max(d0, d1)
 	v[0], v[m-1] = d0, d1
@@ -289,7 +360,42 @@ func (a *Approximator) devRange(t0, t1, d0, d1 float64, g *arcGeom) (lo, hi floa
 	}
 	lo = math.Min(lo, refineExtreme(ts[:m], v[:m], jmin))
 	hi = math.Max(hi, refineExtreme(ts[:m], v[:m], jmax))
-	return lo, hi
+	// Where the normals fan out a stretch of the arc may have its feet
+	// outside [t0, t1] (round a needle's tip), which no normal above
+	// reaches: there the arc's own points are measured as well.
+	plo, phi := a.pointRange(g)
+	return math.Min(lo, plo), math.Max(hi, phi)
+}
+
+// pointRange returns the extremes of the exact signed distance from the
+// intended curve of fanSamples points evenly spaced along the arc or
+// line g, each refined by a parabola through its neighbours. It costs a
+// foot search per point and serves only where the normals fan out.
+func (a *Approximator) pointRange(g *arcGeom) (lo, hi float64) {
+	f := &a.f
+	var x, v [fanSamples + 1]float64
+	for j := 0; j <= fanSamples; j++ {
+		u := float64(j) / fanSamples
+		var p vec
+		if g.line {
+			p = g.p.add(g.q.sub(g.p).scale(u))
+		} else {
+			s, c := math.Sincos(g.dir * g.sweep * u)
+			w := g.cw.scale(c).add(g.cw.left().scale(s * g.dir))
+			p = g.c.add(w)
+		}
+		x[j], v[j] = u, f.e.SignedDistance(ptOf(p))-f.d
+	}
+	jmin, jmax := 0, 0
+	for j := range v {
+		if v[j] < v[jmin] {
+			jmin = j
+		}
+		if v[j] > v[jmax] {
+			jmax = j
+		}
+	}
+	return refineExtreme(x[:], v[:], jmin), refineExtreme(x[:], v[:], jmax)
 }
 
 // polish returns the extreme (the largest when sign > 0, the smallest
@@ -307,13 +413,27 @@ func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64) flo
 	switch j {
 	case 0, m - 1:
 		// An extreme at an end sample may still dip between it and its
-		// neighbour: try the parabola through the last three.
+		// neighbour (the end values are given, not sampled, and a
+		// closing biarc's join may sit on the zone's edge): sample
+		// halfway to the neighbour and polish from there when it is
+		// further out, or when the parabola through the end, the new
+		// sample and the neighbour has its vertex further out between.
 		i := 1
 		if j == m-1 {
 			i = m - 2
 		}
-		xv, yv, ok := parabolaVertex(x[i-1], x[i], x[i+1], v[i-1], v[i], v[i+1])
-		if !ok || (xv-x[j])*(x[i]-xv) <= 0 || sign*yv <= sign*v[j] {
+		xh := 0.5 * (x[j] + x[i])
+		yh := f.circleDev(xh, g)
+		if math.IsNaN(yh) {
+			return sign * math.Inf(1)
+		}
+		if sign*yh > sign*v[j] {
+			x0, x1, x2 = x[j], xh, x[i]
+			y0, y1, y2 = v[j], yh, v[i]
+			break
+		}
+		xv, yv, ok := parabolaVertex(x[j], xh, x[i], v[j], yh, v[i])
+		if !ok || (xv-x[j])*(xh-xv) <= 0 || sign*yv <= sign*v[j] {
 			return v[j]
 		}
 		y := f.circleDev(xv, g)
@@ -321,10 +441,10 @@ func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64) flo
 			return sign * math.Inf(1)
 		}
 		if sign*y <= sign*v[j] {
-			return v[j] // the three-point fit promised a dip the curve has not
+			return v[j] // the fit promised a dip the curve has not
 		}
-		x0, x1, x2 = x[j], xv, x[i]
-		y0, y1, y2 = v[j], y, v[i]
+		x0, x1, x2 = x[j], xv, xh
+		y0, y1, y2 = v[j], y, yh
 	default:
 		x0, x1, x2 = x[j-1], x[j], x[j+1]
 		y0, y1, y2 = v[j-1], v[j], v[j+1]
@@ -378,16 +498,15 @@ func parabolaVertex(x0, x1, x2, y0, y1, y2 float64) (xv, yv float64, ok bool) {
 }
 
 // curvatureRange returns the smallest and largest curvature of the
-// intended curve over [t0, t1] (either order): the ellipse's curvature is
+// intended curve between two feet (either order): the ellipse's curvature is
 // monotone between its vertices at multiples of π/2, so the ends and the
 // vertices inside decide.
-func (f *frame) curvatureRange(t0, t1 float64) (lo, hi float64) {
+func (f *frame) curvatureRange(f0, f1 *foot) (lo, hi float64) {
+	t0, t1 := f0.t, f1.t
 	if t1 < t0 {
 		t0, t1 = t1, t0
 	}
-	k0, _ := f.curvature(t0, f.d)
-	k1, _ := f.curvature(t1, f.d)
-	lo, hi = math.Min(k0, k1), math.Max(k0, k1)
+	lo, hi = math.Min(f0.k, f1.k), math.Max(f0.k, f1.k)
 	for q := math.Ceil(t0 / (math.Pi / 2)); q*(math.Pi/2) <= t1 && q < math.Ceil(t0/(math.Pi/2))+5; q++ {
 		kq, _ := f.curvature(q*(math.Pi/2), f.d)
 		lo, hi = math.Min(lo, kq), math.Max(hi, kq)
@@ -414,9 +533,8 @@ func (f *frame) paramAtNormal(nu float64) float64 {
 
 // mergedGrid appends to dst the parameters t0, then n steps uniform in t
 // merged in order (when normals is set) with n steps uniform in the normal
-// angle, then t1, and returns the count.
-func (f *frame) mergedGrid(t0, t1 float64, n int, dst []float64, normals bool) int {
-	nu0, nu1 := f.normalAngle(t0), f.normalAngle(t1)
+// angle (ν0 = ν(t0) to ν1 = ν(t1)), then t1, and returns the count.
+func (f *frame) mergedGrid(t0, t1, nu0, nu1 float64, n int, dst []float64, normals bool) int {
 	dst = append(dst, t0)
 	ht := (t1 - t0) / float64(n+1)
 	hn := (nu1 - nu0) / float64(n+1)
@@ -507,19 +625,35 @@ type trial struct {
 	dev1  float64
 	ratio float64 // worst use of the half-width; ≤ 1 fits
 	t1    float64
+	foot  foot // at t1
 }
 
 // try builds and measures the step to foot parameter t1.
 func (a *Approximator) try(s *arcState, t1 float64) trial {
 	// End deviation by the deadbeat rule (see endDeviation).
-	tr, _, _ := a.tryEnd(s, t1, a.endDeviation(s, t1))
+	f1, fm := a.footAt(t1), a.footAt(0.5*(s.tp+t1))
+	tr, _, _ := a.tryEnd(s, &fm, &f1, a.endDeviation(s, &fm, &f1))
 	return tr
+}
+
+// slope returns the slope of the deviation at the current point, δ′: the
+// tangent's rise over the curve's own tangent (computed once a step).
+func (s *arcState) slope(a *Approximator) float64 {
+	if !s.haveSlope {
+		f := &a.f
+		_, tc, n := f.at(s.tp, f.d)
+		tau := tc.scale(a.sigma)
+		s.dslope = s.tan.dot(n) / math.Max(s.tan.dot(tau), 1e-3)
+		s.haveSlope = true
+	}
+	return s.dslope
 }
 
 // tryEnd builds and measures the step to foot parameter t1 ending at
 // deviation e1.
-func (a *Approximator) tryEnd(s *arcState, t1, e1 float64) (trial, float64, float64) {
+func (a *Approximator) tryEnd(s *arcState, fm, f1 *foot, e1 float64) (trial, float64, float64) {
 	f := &a.f
+	t1 := f1.t
 	m := a.mid()
 	q, _, n := f.at(t1, f.d+e1)
 	k, end := arcTo(s.p, s.tan, q)
@@ -542,7 +676,8 @@ func (a *Approximator) tryEnd(s *arcState, t1, e1 float64) (trial, float64, floa
 		}
 	}
 	g := a.newArcGeom(s.p, s.tan, tr.k, tr.q)
-	lo, hi := a.devRange(s.tp, t1, s.dev, tr.dev1, &g)
+	tr.foot = *f1
+	lo, hi := a.devRange(&s.foot, fm, f1, s.dev, tr.dev1, &g)
 	tr.ratio = math.Max((hi-m)/(a.hi-m), (m-lo)/(m-a.lo))
 	return tr, lo, hi
 }
@@ -567,6 +702,10 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	}
 	if s.closing {
 		return s.nextClosing(a)
+	}
+	if s.pending {
+		s.pending = false
+		return s.second, true
 	}
 	remaining := math.Abs(a.tEnd - s.tp)
 	if remaining <= 0 {
@@ -636,7 +775,16 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 				lo, rlo = dt, r
 			}
 		} else if dt < hi {
+			// A shorter step that does worse than a longer one meets the
+			// hump the last join committed the chain to (see arcTarget):
+			// steps shrink past it only well below the hump's place,
+			// about a fifth of the way in, so jump there.
+			knife := r > rhi && !math.IsInf(rhi, 0)
 			hi, rhi = dt, r
+			if knife {
+				dt = math.Max(0.3*dt, 1.01*lo)
+				continue
+			}
 		}
 		var next float64
 		switch {
@@ -658,17 +806,38 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 		}
 		dt = next
 	}
+	if bestDt == 0 {
+		// No single arc fits (round a needle's tip whose zone is wider
+		// than the needle, the last join may leave the tangent pointing
+		// out of it): a biarc back onto the middle of the zone has a
+		// join to spare.
+		if math.IsInf(hi, 1) {
+			hi = dt
+		}
+		for _, x := range [...]float64{4, 2, 1, 0.5, 0.25} {
+			if x*hi < remaining {
+				if seg, ok := s.rescue(a, s.tp+a.sigma*x*hi); ok {
+					return seg, true
+				}
+			}
+		}
+	}
 	for bestDt == 0 {
 		dt *= 0.5
+		if dt < 1e-12*math.Abs(a.tEnd-a.spec.From) {
+			a.err = &SpecError{Field: "Tol", Value: a.spec.Tol, Err: ErrNoFit}
+			return Segment{}, false
+		}
 		tr := a.try(s, s.tp+a.sigma*dt)
-		if tr.ratio <= arcLimit || dt < 1e-12 {
+		if tr.ratio <= arcLimit {
 			best, bestDt = tr, dt
 		}
 	}
 	seg := s.segment(best)
 	s.lastDt = bestDt
 	s.corr = math.Max(0.25, math.Min(4, bestDt/pred))
-	s.p, s.tan, s.tp, s.dev = best.q, best.end, best.t1, best.dev1
+	s.p, s.tan, s.tp, s.dev, s.foot = best.q, best.end, best.t1, best.dev1, best.foot
+	s.haveSlope = false
 	return seg, true
 }
 
@@ -685,35 +854,33 @@ func (a *Approximator) patternStep(t float64) float64 {
 }
 
 // patternSlope returns the slope g of the deviation at the joins of the
-// periodic pattern over the arc of feet [t0, t1], g = (1/L)∫(s − L/2)κ ds,
-// and the length L, both along the middle of the zone. With φ(s) the
-// turning from the start, g = φ(L)/2 − mean φ; Simpson's rule on eight
-// panels in t. For κ changing at a steady κ′ it is κ′L²/12.
-func (a *Approximator) patternSlope(t0, t1 float64) (g, l float64) {
-	f := &a.f
-	off := f.d + a.mid()
-	const n = 8
-	h := (t1 - t0) / n
-	nu0 := f.normalAngle(t0)
-	var sl, si, phi float64
-	for i := 0; i <= n; i++ {
-		t := t0 + float64(i)*h
-		w := 2.0
-		switch {
-		case i == 0 || i == n:
-			w = 1
-		case i%2 == 1:
-			w = 4
+// periodic pattern over the arc between the feet f0 and f1, with fm the
+// foot halfway in t: g = (1/L)∫(s − L/2)κ ds and the length L, both along
+// the middle of the zone. With φ(s) the turning from the start,
+// g = φ(L)/2 − mean φ, by Simpson's rule in t: on the three feet where
+// speed and turning are nearly even over the arc, else on four panels
+// (the long arcs of a coarse tolerance on a flat ellipse). For κ changing
+// at a steady κ′ it is κ′L²/12.
+func (a *Approximator) patternSlope(f0, fm, f1 *foot) (g, l float64) {
+	turn := func(x *foot) float64 { return a.sigma * (x.nu - f0.nu) }
+	phi, phim := turn(f1), turn(fm)
+	vlo := math.Min(f0.vMid, math.Min(fm.vMid, f1.vMid))
+	vhi := math.Max(f0.vMid, math.Max(fm.vMid, f1.vMid))
+	if vhi <= 1.2*vlo && math.Abs(2*phim-phi) <= 0.2*math.Abs(phi) {
+		sl := f0.vMid + 4*fm.vMid + f1.vMid
+		si := 4*phim*fm.vMid + phi*f1.vMid
+		if sl == 0 {
+			return 0, 0
 		}
-		v := f.speed(t, off)
-		phi = a.sigma * (f.normalAngle(t) - nu0)
-		sl += w * v
-		si += w * phi * v
+		return phi/2 - si/sl, sl * math.Abs(f1.t-f0.t) / 6
 	}
+	q1, q3 := a.footAt(0.75*f0.t+0.25*f1.t), a.footAt(0.25*f0.t+0.75*f1.t)
+	sl := f0.vMid + 4*q1.vMid + 2*fm.vMid + 4*q3.vMid + f1.vMid
+	si := 4*turn(&q1)*q1.vMid + 2*phim*fm.vMid + 4*turn(&q3)*q3.vMid + phi*f1.vMid
 	if sl == 0 {
 		return 0, 0
 	}
-	return phi/2 - si/sl, sl * math.Abs(h) / 3
+	return phi/2 - si/sl, sl * math.Abs(f1.t-f0.t) / 12
 }
 
 // endDeviation returns the deviation an arc ending at foot t1 should end
@@ -732,16 +899,59 @@ func (a *Approximator) patternSlope(t0, t1 float64) (g, l float64) {
 // thrown when the pattern slope changes from one arc to the next
 // (measured on the count sweep: 4% fewer arcs, and fewer in the worst
 // case of every shape but the roundest).
-func (a *Approximator) endDeviation(s *arcState, t1 float64) float64 {
-	f := &a.f
+func (a *Approximator) endDeviation(s *arcState, fm, f1 *foot) float64 {
 	m := a.mid()
-	_, tc, n := f.at(s.tp, f.d)
-	tau := tc.scale(a.sigma)
-	slope := s.tan.dot(n) / math.Max(s.tan.dot(tau), 1e-3)
-	g, l := a.patternSlope(s.tp, t1)
+	slope := s.slope(a)
+	g, l := a.patternSlope(&s.foot, fm, f1)
 	u1 := 0.8 * ((s.dev-m)/2 + l*(slope-g)/4)
 	lim := 0.8 * (a.hi - m)
+	if edge := math.Max(math.Abs(a.lo), math.Abs(a.hi)); (a.hi-a.lo+edge)*math.Max(s.foot.k, f1.k) > 0.05 {
+		// Where the normals fan out the model means little, and an end
+		// near the edge round a needle's tip can leave no way on.
+		lim = 0.3 * (a.hi - m)
+	}
 	return m + math.Max(-lim, math.Min(lim, u1))
+}
+
+// rescue tries biarcs from the current state to the middle of the zone at
+// foot t1 with the curve's own tangent; on the first that fits it returns
+// the first arc and keeps the second for the next call.
+func (s *arcState) rescue(a *Approximator, t1 float64) (Segment, bool) {
+	q, tq, _ := a.f.at(t1, a.f.d+a.mid())
+	tq = tq.scale(a.sigma)
+	for _, leg := range [...]float64{1, 0.6, 1.6, 0.35, 2.8} {
+		if !a.biarcFits(s.p, s.tan, s.tp, s.dev, q, tq, t1, leg) {
+			continue
+		}
+		k1, _, j, _, _ := a.biarc(s.p, s.tan, q, tq, s.tp, leg)
+		first := s.segment(trial{k: k1, q: j})
+		s.second, s.pending = secondArc(j, q, tq), true
+		s.lastDt = math.Abs(t1 - s.tp)
+		s.p, s.tan, s.tp, s.dev = q, tq, t1, a.mid()
+		s.foot, s.haveSlope = a.footAt(t1), false
+		return first, true
+	}
+	return Segment{}, false
+}
+
+// biarcFits reports whether the biarc with first leg ratio leg (see
+// biarc) from p with tangent tg, foot tp and deviation dev to q with
+// tangent tq on the middle of the zone at foot t1 stays in the zone.
+func (a *Approximator) biarcFits(p, tg vec, tp, dev float64, q, tq vec, t1, leg float64) bool {
+	a1, a2, j, tj, ok := a.biarc(p, tg, q, tq, tp, leg)
+	if !ok {
+		return false
+	}
+	devJ := a.f.e.SignedDistance(ptOf(j)) - a.f.d
+	g1 := a.newArcGeom(p, tg, a1, j)
+	fp, fj, f1 := a.footAt(tp), a.footAt(tj), a.footAt(t1)
+	fm1, fm2 := a.footAt(0.5*(tp+tj)), a.footAt(0.5*(tj+t1))
+	lo1, hi1 := a.devRange(&fp, &fm1, &fj, dev, devJ, &g1)
+	_, jt := arcTo(p, tg, j)
+	g2 := a.newArcGeom(j, jt, a2, q)
+	lo2, hi2 := a.devRange(&fj, &fm2, &f1, devJ, a.mid(), &g2)
+	m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo)
+	return math.Min(lo1, lo2) >= m-w && math.Max(hi1, hi2) <= m+w
 }
 
 // closeFits reports whether n interpolating biarcs from the current state
@@ -753,17 +963,7 @@ func (s *arcState) closeFits(a *Approximator, n int) bool {
 	for i := 0; i < n; i++ {
 		t1 := tp + h
 		q, tq := s.piece(a, i, n, t1)
-		a1, a2, j, tj, ok := a.biarc(p, tg, q, tq, tp, s.leg)
-		if !ok {
-			return false
-		}
-		devJ := a.f.e.SignedDistance(ptOf(j)) - a.f.d
-		g1 := a.newArcGeom(p, tg, a1, j)
-		lo1, hi1 := a.devRange(tp, tj, dev, devJ, &g1)
-		_, jt := arcTo(p, tg, j)
-		g2 := a.newArcGeom(j, jt, a2, q)
-		lo2, hi2 := a.devRange(tj, t1, devJ, a.mid(), &g2)
-		if m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo); math.Min(lo1, lo2) < m-w || math.Max(hi1, hi2) > m+w {
+		if !a.biarcFits(p, tg, tp, dev, q, tq, t1, s.leg) {
 			return false
 		}
 		p, tg, tp, dev = q, tq, t1, a.mid()
@@ -823,6 +1023,20 @@ func (a *Approximator) biarc(p0, t0, p1, t1 vec, ref, leg float64) (k1, k2 float
 	return k1, k2, j, tj, true
 }
 
+// secondArc returns the arc from j that ends at q with tangent tq, built
+// backwards from q: so the chain goes on from q with exactly tq, and the
+// rounding of a short first arc's chord (a few ulps of the coordinates
+// over its length) shows as a kink at the join j rather than carried on.
+func secondArc(j, q, tq vec) Segment {
+	kb, _ := arcTo(q, tq.scale(-1), j) // the arc run backwards from q
+	if kb == 0 {
+		return Segment{Kind: Line, Start: Point{X: j.x, Y: j.y}, End: Point{X: q.x, Y: q.y}}
+	}
+	c := q.addScaled(tq.scale(-1).left(), 1/kb)
+	return Segment{Kind: Arc, Start: Point{X: j.x, Y: j.y}, End: Point{X: q.x, Y: q.y},
+		CenterX: c.x, CenterY: c.y, Radius: math.Abs(1 / kb), Clockwise: kb > 0}
+}
+
 // unwrapNear returns t + 2πk nearest to ref.
 func unwrapNear(t, ref float64) float64 {
 	return t + 2*math.Pi*math.Round((ref-t)/(2*math.Pi))
@@ -841,15 +1055,14 @@ func (s *arcState) nextClosing(a *Approximator) (Segment, bool) {
 	h := (a.tEnd - s.t0End) / float64(s.n)
 	t1 := s.t0End + h*float64(s.i+1)
 	q, tq := s.piece(a, s.i, s.n, t1)
-	k1, k2, j, _, ok := a.biarc(s.p, s.tan, q, tq, s.tp, s.leg)
+	k1, _, j, _, ok := a.biarc(s.p, s.tan, q, tq, s.tp, s.leg)
 	if !ok {
 		return Segment{}, false
 	}
 	first := s.segment(trial{k: k1, q: j})
-	_, jt := arcTo(s.p, s.tan, j)
-	mid := arcState{p: j, tan: jt}
-	s.second = mid.segment(trial{k: k2, q: q})
+	s.second = secondArc(j, q, tq)
 	s.half = true
 	s.p, s.tan, s.tp, s.dev = q, tq, t1, a.mid()
+	s.foot, s.haveSlope = a.footAt(t1), false
 	return first, true
 }
