@@ -65,6 +65,16 @@ func (e Ellipse) Nearest(p Point) (t, d float64) {
 // a point (y0, y1) in the first quadrant of the ellipse with semi-axes
 // e0 ≥ e1 along the coordinate axes.
 func eberlyFoot(e0, e1, y0, y1 float64) (x0, x1, dist float64) {
+	// A coordinate below 1e-150 of its semi-axis moves the distance by far
+	// less than an ulp, but squared or divided it runs into the subnormal
+	// numbers, which carry fewer digits (a point 1e-310 off the major axis
+	// near the centre lost ten of them): take it as on the axis.
+	if y0 < 1e-150*e0 {
+		y0 = 0
+	}
+	if y1 < 1e-150*e1 {
+		y1 = 0
+	}
 	if y1 > 0 {
 		if y0 > 0 {
 			z0, z1 := y0/e0, y1/e1

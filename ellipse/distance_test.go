@@ -180,6 +180,27 @@ func TestSignedDistanceClosedForms(t *testing.T) {
 	}
 }
 
+// TestSignedDistanceNearTheCentreWithSubnormals: a point a hair off the
+// centre, one own coordinate subnormal (found by the rigid-motion property
+// test: the foot search lost ten digits there), is −b away.
+func TestSignedDistanceNearTheCentreWithSubnormals(t *testing.T) {
+	for _, sz := range []struct{ a, b float64 }{{5623.413251903491, 562.3413251903491}, {1, 1e-3}, {2, 1}} {
+		for _, swap := range []bool{false, true} {
+			rx, ry := sz.a, sz.b
+			if swap {
+				rx, ry = ry, rx
+			}
+			e := mustNew(t, Point{}, rx, ry, 0) // own frame = world frame
+			for _, q := range []struct{ x, y float64 }{{8.7e-311, 1.3e-51}, {1.3e-51, 8.7e-311}, {1e-200, 4e-320}, {4e-320, 1e-160}} {
+				p := Point{X: q.x, Y: q.y}
+				if got := e.SignedDistance(p); math.Abs(got+sz.b) > 1e-12*sz.a {
+					t.Errorf("a=%g b=%g swap %v: SignedDistance at own (%g, %g) = %.17g, want %.17g", sz.a, sz.b, swap, q.x, q.y, got, -sz.b)
+				}
+			}
+		}
+	}
+}
+
 // TestSignedDistanceOfCircle compares with |p − c| − r at points spread
 // over the plane, including the centre and points near it.
 func TestSignedDistanceOfCircle(t *testing.T) {
