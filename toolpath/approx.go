@@ -131,6 +131,11 @@ type Approximator struct {
 	limit  int     // segments allowed before the approximation counts as stalled
 	err    error
 	arcs   arcState
+	// Scratch space of the arc approximator's deviation measure, kept
+	// here so that no call clears 10 kB of stack.
+	grid [2*maxSamples + 2]sample
+	ts   [2*maxSamples + 2]float64
+	vs   [2*maxSamples + 2]float64
 }
 
 // NewApproximator validates s and returns an Approximator positioned at its
@@ -219,8 +224,9 @@ func (a *Approximator) EstimateSegments() float64 {
 }
 
 // quickEstimate is a cheap N* for the segment-count guard: 4-point Gauss
-// on 64 equal panels of the range, good to a few per cent except on the flattest
-// ellipses, where it errs low; the guard has a wide margin.
+// on 16 equal panels of the range (64 evaluations), within 1% of
+// [LowerBound] for b/a ≥ 0.1 and 10% low at b/a = 0.001 (measured on a
+// whole turn, lines and arcs); the guard has a wide margin.
 func (a *Approximator) quickEstimate() float64 {
 	return lowerBoundFixed(&a.f, a.spec.Geometry, a.hi-a.lo, a.spec.From, a.tEnd)
 }
@@ -315,7 +321,7 @@ func lowerBoundFixed(f *frame, g Geometry, w float64, from, to float64) float64 
 		from, to = to, from
 	}
 	integrand := countDensity(f, g, w)
-	const panels = 64
+	const panels = 16
 	h := (to - from) / panels
 	sum := 0.0
 	for i := 0; i < panels; i++ {

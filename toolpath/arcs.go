@@ -85,9 +85,9 @@ func (s *arcState) start(a *Approximator) {
 	kp := a.sigma * dke / (g1 * g1 * g1)
 	if kp != 0 {
 		l := math.Cbrt(62 * (a.hi - a.lo) / math.Abs(kp))
-		l = math.Min(l, math.Pi/4*f.speed(a.spec.From, f.d))
+		l = min(l, math.Pi/4*f.speed(a.spec.From, f.d))
 		g := kp * l * l / 12
-		g = math.Max(-0.5, math.Min(0.5, g))
+		g = max(-0.5, min(0.5, g))
 		tan = tan.add(n.scale(g)).scale(1 / math.Hypot(1, g))
 	}
 	*s = arcState{p: p, tan: tan, tp: a.spec.From, dev: m, foot: a.footAt(a.spec.From)}
@@ -194,8 +194,13 @@ func (g *arcGeom) angle(w vec) float64 {
 // one on the arc is taken (nearest the curve if both are).
 
 func (f *frame) circleDev(t float64, g *arcGeom) float64 {
-	// The curve's point and outward normal in the own frame.
 	s, c := math.Sincos(t)
+	return f.circleDevSC(s, c, g)
+}
+
+// circleDevSC is circleDev given the sine and cosine of t.
+func (f *frame) circleDevSC(s, c float64, g *arcGeom) float64 {
+	// The curve's point and outward normal in the own frame.
 	n := vec{f.ry * c, f.rx * s}
 	n = n.scale(1 / math.Sqrt(n.x*n.x+n.y*n.y))
 	q := vec{f.rx*c + f.d*n.x, f.ry*s + f.d*n.y}
@@ -251,7 +256,7 @@ func (a *Approximator) footAt(t float64) foot {
 	v2 := f.rx*f.rx*s*s + f.ry*f.ry*c*c
 	v := math.Sqrt(v2)
 	ke := f.rx * f.ry / (v2 * v)
-	edge := math.Max(math.Abs(a.lo), math.Abs(a.hi))
+	edge := max(math.Abs(a.lo), math.Abs(a.hi))
 	return foot{
 		t:     t,
 		k:     ke / (1 + f.d*ke),
@@ -286,10 +291,10 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 		k = 1 / g.r
 	}
 	kmin, kmax := f.curvatureRange(f0, f1)
-	dd := math.Max(math.Abs(kmax-k), math.Abs(kmin-k))
+	dd := max(math.Abs(kmax-k), math.Abs(kmin-k))
 	// The arc's points sit on the curve's normals up to the zone's edge,
 	// where a step along the curve covers (1 + |edge|·κ) times the length.
-	edge := math.Max(math.Abs(a.lo), math.Abs(a.hi))
+	edge := max(math.Abs(a.lo), math.Abs(a.hi))
 	// Length of the zone's outer edge over the interval, cheaply and from
 	// above enough: Simpson on its speed, or its turning times the largest
 	// radius there, whichever is larger (the first misses a tight tip
@@ -301,10 +306,10 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 	// uniform in t serves; its widest spacing is where the speed peaks.
 	single := math.Abs(nu1-nu0) <= 2*math.Abs(t1-t0) && math.Abs(nu1-nu0) >= 0.5*math.Abs(t1-t0)
 	if kmin > 0 {
-		length = math.Max(length, math.Abs(nu1-nu0)*(1/kmin+edge))
+		length = max(length, math.Abs(nu1-nu0)*(1/kmin+edge))
 	}
 	// |κ′| over the interval, bounded from the curvature change over it.
-	dk := 4 * (kmax - kmin) / math.Max(length, 1e-300)
+	dk := 4 * (kmax - kmin) / max(length, 1e-300)
 	miss := devMiss * 0.5 * (a.hi - a.lo)
 	h := math.Inf(1)
 	// Polishing the extremes needs them smooth and found; where the zone
@@ -316,29 +321,32 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 		h = math.Cbrt(24 * miss / dk)
 	}
 	if dd > 0 {
-		h = math.Min(h, math.Sqrt(8*0.25*0.5*(a.hi-a.lo)/dd))
+		h = min(h, math.Sqrt(8*0.25*0.5*(a.hi-a.lo)/dd))
 	}
 	// At least arcSamples from each grid used.
 	n := 2 * arcSamples
 	x := 2 * length / h
 	if single {
 		n = arcSamples
-		x = math.Abs(t1-t0) * math.Max(v0, math.Max(vm, v1)) / h
+		x = math.Abs(t1-t0) * max(v0, max(vm, v1)) / h
 	}
 	if x > float64(n) {
-		n = int(math.Min(x+1, maxSamples))
+		n = int(min(x+1, maxSamples))
 	}
-	var ts, v [2*maxSamples + 2]float64
+	ts, v, grid := a.ts[:], a.vs[:], a.grid[:]
 	var m int
 	if single {
-		m = f.mergedGrid(t0, t1, nu0, nu1, n, ts[:0], false)
+		m = f.mergedGrid(t0, t1, nu0, nu1, n, grid[:0], false)
 	} else {
-		m = f.mergedGrid(t0, t1, nu0, nu1, n/2, ts[:0], true)
+		m = f.mergedGrid(t0, t1, nu0, nu1, n/2, grid[:0], true)
 	}
-	lo, hi = math.Min(d0, d1), math.Max(d0, d1)
+	for j := 0; j < m; j++ {
+		ts[j] = grid[j].t
+	}
+	lo, hi = min(d0, d1), max(d0, d1)
 	v[0], v[m-1] = d0, d1
 	for j := 1; j < m-1; j++ {
-		x := f.circleDev(ts[j], g)
+		x := f.circleDevSC(grid[j].s, grid[j].c, g)
 		if math.IsNaN(x) {
 			return math.Inf(-1), math.Inf(1)
 		}
@@ -354,17 +362,17 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 		}
 	}
 	if polish {
-		lo = math.Min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.25*miss))
-		hi = math.Max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.25*miss))
+		lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.25*miss))
+		hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.25*miss))
 		return lo, hi
 	}
-	lo = math.Min(lo, refineExtreme(ts[:m], v[:m], jmin))
-	hi = math.Max(hi, refineExtreme(ts[:m], v[:m], jmax))
+	lo = min(lo, refineExtreme(ts[:m], v[:m], jmin))
+	hi = max(hi, refineExtreme(ts[:m], v[:m], jmax))
 	// Where the normals fan out a stretch of the arc may have its feet
 	// outside [t0, t1] (round a needle's tip), which no normal above
 	// reaches: there the arc's own points are measured as well.
 	plo, phi := a.pointRange(g)
-	return math.Min(lo, plo), math.Max(hi, phi)
+	return min(lo, plo), max(hi, phi)
 }
 
 // pointRange returns the extremes of the exact signed distance from the
@@ -460,7 +468,7 @@ func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64) flo
 			return sign * math.Inf(1)
 		}
 		if math.Abs(y-yv) <= tol {
-			return sign * math.Max(sign*y, math.Max(sign*yv, sign*best))
+			return sign * max(sign*y, max(sign*yv, sign*best))
 		}
 		if sign*y > sign*best {
 			best = y
@@ -491,7 +499,7 @@ func parabolaVertex(x0, x1, x2, y0, y1, y2 float64) (xv, yv float64, ok bool) {
 	}
 	h := -b / (2 * c)
 	xv = x1 + h
-	if xv <= math.Min(x0, x2) || xv >= math.Max(x0, x2) || xv == x1 {
+	if xv <= min(x0, x2) || xv >= max(x0, x2) || xv == x1 {
 		return 0, 0, false
 	}
 	return xv, y1 + b*h + c*h*h, true
@@ -506,10 +514,10 @@ func (f *frame) curvatureRange(f0, f1 *foot) (lo, hi float64) {
 	if t1 < t0 {
 		t0, t1 = t1, t0
 	}
-	lo, hi = math.Min(f0.k, f1.k), math.Max(f0.k, f1.k)
+	lo, hi = min(f0.k, f1.k), max(f0.k, f1.k)
 	for q := math.Ceil(t0 / (math.Pi / 2)); q*(math.Pi/2) <= t1 && q < math.Ceil(t0/(math.Pi/2))+5; q++ {
 		kq, _ := f.curvature(q*(math.Pi/2), f.d)
-		lo, hi = math.Min(lo, kq), math.Max(hi, kq)
+		lo, hi = min(lo, kq), max(hi, kq)
 	}
 	return lo, hi
 }
@@ -531,11 +539,20 @@ func (f *frame) paramAtNormal(nu float64) float64 {
 	return math.Atan2(f.ry*s, f.rx*c) + n*math.Pi
 }
 
-// mergedGrid appends to dst the parameters t0, then n steps uniform in t
+// sample is a grid point: the curve parameter and its sine and cosine.
+type sample struct{ t, s, c float64 }
+
+// reseed is how many steps the sine and cosine are carried by rotation
+// before being computed afresh (the rounding grows by a few ulps a step).
+const reseed = 16
+
+// mergedGrid appends to dst the parameter t0, then n steps uniform in t
 // merged in order (when normals is set) with n steps uniform in the normal
-// angle (ν0 = ν(t0) to ν1 = ν(t1)), then t1, and returns the count.
-func (f *frame) mergedGrid(t0, t1, nu0, nu1 float64, n int, dst []float64, normals bool) int {
-	dst = append(dst, t0)
+// angle (ν0 = ν(t0) to ν1 = ν(t1)), then t1, and returns the count. The
+// sines and cosines of the steps come by rotation, not one Sincos each;
+// those of the two ends are not set.
+func (f *frame) mergedGrid(t0, t1, nu0, nu1 float64, n int, dst []sample, normals bool) int {
+	dst = append(dst, sample{t: t0})
 	ht := (t1 - t0) / float64(n+1)
 	hn := (nu1 - nu0) / float64(n+1)
 	i, j := 1, 1
@@ -543,36 +560,53 @@ func (f *frame) mergedGrid(t0, t1, nu0, nu1 float64, n int, dst []float64, norma
 		j = n + 1 // no normal-angle samples
 	}
 	up := t1 > t0
-	var nt float64
+	var st, ct, sn, cn float64 // sine and cosine of the next t and ν steps
+	shT, chT := math.Sincos(ht)
+	shN, chN := math.Sincos(hn)
+	var nx sample
 	haveN := false
 	for i <= n || j <= n {
 		if !haveN && j <= n {
-			nt = f.paramAtNormal(nu0 + float64(j)*hn)
+			if (j-1)%reseed == 0 {
+				sn, cn = math.Sincos(nu0 + float64(j)*hn)
+			}
+			// The foot whose normal has angle ν: (cos t, sin t) lies
+			// along (rx·cos ν, ry·sin ν).
+			a, b := f.rx*cn, f.ry*sn
+			h := math.Sqrt(a*a + b*b)
+			k := math.Round((nu0 + float64(j)*hn) / math.Pi)
+			sg := float64(1 - 2*(int64(k)&1)) // (−1)^k
+			nx = sample{t: math.Atan2(sg*b, sg*a) + k*math.Pi, s: b / h, c: a / h}
+			sn, cn = sn*chN+cn*shN, cn*chN-sn*shN
 			haveN = true
 		}
+		if (i-1)%reseed == 0 && i <= n {
+			st, ct = math.Sincos(t0 + float64(i)*ht)
+		}
 		tt := t0 + float64(i)*ht
-		var x float64
-		if j > n || (i <= n && (tt < nt) == up) {
-			x = tt
+		var x sample
+		if j > n || (i <= n && (tt < nx.t) == up) {
+			x = sample{t: tt, s: st, c: ct}
+			st, ct = st*chT+ct*shT, ct*chT-st*shT
 			i++
 		} else {
-			x = nt
+			x = nx
 			j++
 			haveN = false
-			if (nt-t0)*(t1-nt) <= 0 {
+			if (nx.t-t0)*(t1-nx.t) <= 0 {
 				continue
 			}
 		}
 		// Skip a sample crowding the last one (the two grids coincide on
 		// a circle): the parabola through near-equal positions is noise.
-		if math.Abs(x-dst[len(dst)-1]) > 0.25*math.Abs(ht) || len(dst) == 1 && math.Abs(x-t0) > 1e-3*math.Abs(ht) {
+		if math.Abs(x.t-dst[len(dst)-1].t) > 0.25*math.Abs(ht) || len(dst) == 1 && math.Abs(x.t-t0) > 1e-3*math.Abs(ht) {
 			dst = append(dst, x)
 		}
 	}
-	if math.Abs(t1-dst[len(dst)-1]) < 0.25*math.Abs(ht) && len(dst) > 1 {
+	if math.Abs(t1-dst[len(dst)-1].t) < 0.25*math.Abs(ht) && len(dst) > 1 {
 		dst = dst[:len(dst)-1]
 	}
-	dst = append(dst, t1)
+	dst = append(dst, sample{t: t1})
 	return len(dst)
 }
 
@@ -594,7 +628,7 @@ func refineExtreme(x, v []float64, j int) float64 {
 		return y1
 	}
 	xv := -b / (2 * c)
-	if xv < math.Min(x0, x2) || xv > math.Max(x0, x2) {
+	if xv < min(x0, x2) || xv > max(x0, x2) {
 		return y1 // the vertex is outside the neighbours: no extreme there
 	}
 	return y1 + b*xv + c*xv*xv
@@ -643,7 +677,7 @@ func (s *arcState) slope(a *Approximator) float64 {
 		f := &a.f
 		_, tc, n := f.at(s.tp, f.d)
 		tau := tc.scale(a.sigma)
-		s.dslope = s.tan.dot(n) / math.Max(s.tan.dot(tau), 1e-3)
+		s.dslope = s.tan.dot(n) / max(s.tan.dot(tau), 1e-3)
 		s.haveSlope = true
 	}
 	return s.dslope
@@ -678,7 +712,7 @@ func (a *Approximator) tryEnd(s *arcState, fm, f1 *foot, e1 float64) (trial, flo
 	g := a.newArcGeom(s.p, s.tan, tr.k, tr.q)
 	tr.foot = *f1
 	lo, hi := a.devRange(&s.foot, fm, f1, s.dev, tr.dev1, &g)
-	tr.ratio = math.Max((hi-m)/(a.hi-m), (m-lo)/(m-a.lo))
+	tr.ratio = max((hi-m)/(a.hi-m), (m-lo)/(m-a.lo))
 	return tr, lo, hi
 }
 
@@ -721,9 +755,9 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	}
 	dt := corr * pred
 	if s.lastDt > 0 {
-		dt = math.Min(dt, 4*s.lastDt)
+		dt = min(dt, 4*s.lastDt)
 	}
-	dt = math.Min(dt, math.Pi)
+	dt = min(dt, math.Pi)
 	// Near the end, close with one biarc when it fits; when little is
 	// left, with the fewest biarcs that fit. Unequal legs give the join
 	// a second chance where the equal-leg biarc leaves the zone. What is
@@ -731,14 +765,17 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	// far ahead where κ′ vanishes, at the vertices.
 	typical := dt
 	if s.lastDt > 0 {
-		typical = math.Min(dt, 1.5*s.lastDt)
+		typical = min(dt, 1.5*s.lastDt)
 	}
 	if remaining <= 3*typical {
 		for n := 1; n <= 4; n++ {
 			if n > 1 && remaining > 0.8*typical {
 				break
 			}
-			for _, leg := range [...]float64{1, 0.6, 1.6, 0.35, 2.8} {
+			for i, leg := range [...]float64{1, 0.6, 1.6, 0.35, 2.8} {
+				if i > 0 && remaining > 2.2*typical {
+					break // unequal legs only for the last chances
+				}
 				if s.leg = leg; s.closeFits(a, n) {
 					s.closing, s.n, s.i, s.half = true, n, 0, false
 					s.t0End = s.tp
@@ -752,16 +789,16 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	bestDt := 0.0
 	// A step never reaches the end, which is the closing biarcs' job, and
 	// leaves them about one step.
-	maxDt := math.Max(0.5*remaining, remaining-typical)
+	maxDt := max(0.5*remaining, remaining-typical)
 	// The ratio grows from the start's own use of the zone, r0, about as
 	// the cube of the step: search the step by regula falsi on that model
 	// between the longest step that fits and the shortest that does not.
 	m := a.mid()
-	r0 := math.Max((s.dev-m)/(a.hi-m), (m-s.dev)/(m-a.lo))
+	r0 := max((s.dev-m)/(a.hi-m), (m-s.dev)/(m-a.lo))
 	lo, rlo := 0.0, r0
 	hi, rhi := math.Inf(1), math.Inf(1)
 	for i := 0; i < arcMaxSteps; i++ {
-		dt = math.Min(dt, maxDt)
+		dt = min(dt, maxDt)
 		tr := a.try(s, s.tp+a.sigma*dt)
 		r := tr.ratio
 		if r <= arcLimit {
@@ -782,7 +819,7 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 			knife := r > rhi && !math.IsInf(rhi, 0)
 			hi, rhi = dt, r
 			if knife {
-				dt = math.Max(0.3*dt, 1.01*lo)
+				dt = max(0.3*dt, 1.01*lo)
 				continue
 			}
 		}
@@ -791,15 +828,15 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 		case math.IsInf(hi, 1):
 			next = 2 * lo
 			if rlo > r0 {
-				next = math.Min(next, lo*math.Cbrt((arcTarget-r0)/(rlo-r0)))
+				next = min(next, lo*math.Cbrt((arcTarget-r0)/(rlo-r0)))
 			}
-			next = math.Max(next, 1.01*lo)
+			next = max(next, 1.01*lo)
 		case math.IsInf(rhi, 0) || math.IsNaN(rhi) || rhi <= rlo:
 			next = 0.5 * (lo + hi)
 		default:
 			l3, h3 := lo*lo*lo, hi*hi*hi
 			next = math.Cbrt(l3 + (arcTarget-rlo)*(h3-l3)/(rhi-rlo))
-			next = math.Max(lo+0.1*(hi-lo), math.Min(hi-0.1*(hi-lo), next))
+			next = max(lo+0.1*(hi-lo), min(hi-0.1*(hi-lo), next))
 		}
 		if bestDt > 0 && hi-lo < 0.003*hi {
 			break
@@ -835,7 +872,7 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	}
 	seg := s.segment(best)
 	s.lastDt = bestDt
-	s.corr = math.Max(0.25, math.Min(4, bestDt/pred))
+	s.corr = max(0.25, min(4, bestDt/pred))
 	s.p, s.tan, s.tp, s.dev, s.foot = best.q, best.end, best.t1, best.dev1, best.foot
 	s.haveSlope = false
 	return seg, true
@@ -849,8 +886,8 @@ func (a *Approximator) patternStep(t float64) float64 {
 	ke, dke := f.ellipseCurvature(t)
 	g1 := 1 + f.d*ke
 	kp := math.Abs(dke / (g1 * g1 * g1))
-	l := math.Cbrt(36 * math.Sqrt(3) * (a.hi - a.lo) * arcTarget / math.Max(kp, 1e-300))
-	return math.Min(l/f.speed(t, f.d), math.Pi)
+	l := math.Cbrt(36 * math.Sqrt(3) * (a.hi - a.lo) * arcTarget / max(kp, 1e-300))
+	return min(l/f.speed(t, f.d), math.Pi)
 }
 
 // patternSlope returns the slope g of the deviation at the joins of the
@@ -864,8 +901,8 @@ func (a *Approximator) patternStep(t float64) float64 {
 func (a *Approximator) patternSlope(f0, fm, f1 *foot) (g, l float64) {
 	turn := func(x *foot) float64 { return a.sigma * (x.nu - f0.nu) }
 	phi, phim := turn(f1), turn(fm)
-	vlo := math.Min(f0.vMid, math.Min(fm.vMid, f1.vMid))
-	vhi := math.Max(f0.vMid, math.Max(fm.vMid, f1.vMid))
+	vlo := min(f0.vMid, min(fm.vMid, f1.vMid))
+	vhi := max(f0.vMid, max(fm.vMid, f1.vMid))
 	if vhi <= 1.2*vlo && math.Abs(2*phim-phi) <= 0.2*math.Abs(phi) {
 		sl := f0.vMid + 4*fm.vMid + f1.vMid
 		si := 4*phim*fm.vMid + phi*f1.vMid
@@ -905,12 +942,12 @@ func (a *Approximator) endDeviation(s *arcState, fm, f1 *foot) float64 {
 	g, l := a.patternSlope(&s.foot, fm, f1)
 	u1 := 0.8 * ((s.dev-m)/2 + l*(slope-g)/4)
 	lim := 0.8 * (a.hi - m)
-	if edge := math.Max(math.Abs(a.lo), math.Abs(a.hi)); (a.hi-a.lo+edge)*math.Max(s.foot.k, f1.k) > 0.05 {
+	if edge := max(math.Abs(a.lo), math.Abs(a.hi)); (a.hi-a.lo+edge)*max(s.foot.k, f1.k) > 0.05 {
 		// Where the normals fan out the model means little, and an end
 		// near the edge round a needle's tip can leave no way on.
 		lim = 0.3 * (a.hi - m)
 	}
-	return m + math.Max(-lim, math.Min(lim, u1))
+	return m + max(-lim, min(lim, u1))
 }
 
 // rescue tries biarcs from the current state to the middle of the zone at
@@ -951,7 +988,7 @@ func (a *Approximator) biarcFits(p, tg vec, tp, dev float64, q, tq vec, t1, leg 
 	g2 := a.newArcGeom(j, jt, a2, q)
 	lo2, hi2 := a.devRange(&fj, &fm2, &f1, devJ, a.mid(), &g2)
 	m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo)
-	return math.Min(lo1, lo2) >= m-w && math.Max(hi1, hi2) <= m+w
+	return min(lo1, lo2) >= m-w && max(hi1, hi2) <= m+w
 }
 
 // closeFits reports whether n interpolating biarcs from the current state
