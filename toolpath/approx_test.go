@@ -320,20 +320,21 @@ func TestSegmentCountsNearTheLowerBound(t *testing.T) {
 		n := float64(len(p))
 		limit := 1.03*nstar + 3
 		if s.Geometry == Arcs {
-			// Measured worst cases (README): (N − 4)/N* ≤ 1.8 for b/a ≥ 0.5,
-			// ≤ 2.5 down to b/a = 0.1, and up to 4.7 at b/a = 0.01 with a
-			// large offset, where the curvature changes several-fold
-			// within one arc near the tips and the steering model is
-			// weakest. The target is 2.0·N* + 4 everywhere; it is
-			// met on ordinary shapes only.
+			// Measured worst cases (README; 30000 draws of this test's
+			// generator): (N − 4)/N* ≤ 1.92 for b/a ≥ 0.1, 2.2 down to
+			// b/a = 0.01 and 2.8 at b/a = 0.001, the worst being flat
+			// ellipses with an offset about the semi-minor axis and a
+			// coarse tolerance, where round the caps the curvature
+			// changes several-fold within one arc. The target is
+			// 2.0·N* + 4 everywhere; it is met for b/a ≥ 0.1.
 			e := s.Curve.Ellipse()
 			switch r := e.SemiMinor() / e.SemiMajor(); {
-			case r >= 0.5:
-				limit = 2.0*nstar + 4
 			case r >= 0.1:
-				limit = 2.6*nstar + 4
+				limit = 2.0*nstar + 4
+			case r >= 0.01:
+				limit = 2.5*nstar + 4
 			default:
-				limit = 5.0*nstar + 4
+				limit = 3.2*nstar + 4
 			}
 		}
 		if n > limit {
