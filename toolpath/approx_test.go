@@ -270,6 +270,11 @@ func TestApproximationRegressions(t *testing.T) {
 		// the join's tangent to 1e-9 only, and building the second arc
 		// forwards carried that kink to the start of the path.
 		{"needle at y = 1000", Spec{Curve: needleAt(t, math.Pow(10, 3.814697265625e-06), -4, 1000), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 0.1875}},
+		// Lines round a needle with an offset as large as the needle
+		// is long: the segment-count guard, estimated on panels evenly
+		// spaced in t, missed the caps (a sixth of the count) and
+		// stopped a sound approximation as stalled.
+		{"count guard on a stadium (lines)", Spec{Curve: parallelX(t, math.Pow(10, 1.25), 1e-3, 17.78279410038923), Zone: Band, Tol: 1e-4, Geometry: Lines, From: 1}},
 		{"closing join on the zone's edge", Spec{Curve: parallel(t, math.Pow(10, 0.8241424560546875), math.Pow(10, -1.2688522338867188), 0.7862548828125), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 7}},
 	} {
 		t.Run(c.name, func(t *testing.T) { checkApproximation(t, c.s) })

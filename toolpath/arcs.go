@@ -365,8 +365,27 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 		}
 	}
 	if polish {
-		lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.25*miss))
-		hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.25*miss))
+		// No sample misses its neighbourhood's extreme by more than a
+		// quarter of the half-width (the spacing h above; half of it is
+		// allowed here, for merged grids that space unevenly), so only
+		// the extreme that decides the ratio needs polishing, and the
+		// other one too only if that bound could overtake it.
+		mid, miss4 := a.mid(), 0.5*(a.hi-a.lo)/2
+		if v[jmax]-mid >= mid-v[jmin] {
+			hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.25*miss))
+			if mid-(v[jmin]-miss4) > hi-mid {
+				lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.25*miss))
+			} else {
+				lo = min(lo, v[jmin]-miss4)
+			}
+		} else {
+			lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.25*miss))
+			if v[jmax]+miss4-mid > mid-lo {
+				hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.25*miss))
+			} else {
+				hi = max(hi, v[jmax]+miss4)
+			}
+		}
 		return lo, hi
 	}
 	lo = min(lo, refineExtreme(ts[:m], v[:m], jmin))
@@ -565,7 +584,10 @@ func (f *frame) mergedGrid(t0, t1, nu0, nu1 float64, n int, dst []sample, normal
 	up := t1 > t0
 	var st, ct, sn, cn float64 // sine and cosine of the next t and ν steps
 	shT, chT := math.Sincos(ht)
-	shN, chN := math.Sincos(hn)
+	var shN, chN float64
+	if normals {
+		shN, chN = math.Sincos(hn)
+	}
 	var nx sample
 	haveN := false
 	for i <= n || j <= n {
