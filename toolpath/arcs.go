@@ -145,6 +145,7 @@ type arcGeom struct {
 	sweep   float64 // turning from start to end, in (0, 2π]
 	wide    float64 // radius above which the near crossing is the arc's
 	fan     bool    // the normals fan out across the zone: always check
+	nu      bool    // devRange samples on the normal-angle grid
 }
 
 // local returns the world point v in the ellipse's own frame.
@@ -305,9 +306,6 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 	v0, vm, v1 := f0.vEdge, fm.vEdge, f1.vEdge
 	length := math.Abs(t1-t0) * (v0 + 4*vm + v1) / 6
 	nu0, nu1 := f0.nu, f1.nu
-	// Where the normal turns about as fast as the parameter one grid
-	// uniform in t serves; its widest spacing is where the speed peaks.
-	single := math.Abs(nu1-nu0) <= 2*math.Abs(t1-t0) && math.Abs(nu1-nu0) >= 0.5*math.Abs(t1-t0)
 	if kmin > 0 {
 		length = max(length, math.Abs(nu1-nu0)*(1/kmin+edge))
 	}
@@ -326,25 +324,48 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 	if dd > 0 {
 		h = min(h, math.Sqrt(8*0.25*0.5*(a.hi-a.lo)/dd))
 	}
-	// At least arcSamples from each grid used.
-	n := 2 * arcSamples
-	x := 2 * length / h
-	if single {
-		n = arcSamples
-		x = math.Abs(t1-t0) * max(v0, max(vm, v1)) / h
+	// The grid: uniform in t, whose widest spacing on the outer edge is
+	// where its speed peaks (at the ends, the middle or a vertex inside;
+	// a quarter more is allowed between them), uniform in the normal
+	// angle, whose widest spacing is where the radius peaks, or both
+	// merged (the first crowds the flanks of a flat ellipse and starves
+	// its tips, the second the opposite), whichever needs the fewest
+	// samples for the spacing h; the merged grid costs more a sample.
+	nT := math.Abs(t1-t0) * 1.25 * f.edgeSpeedMax(t0, t1, a.f.d+edge, max(v0, vm, v1)) / h
+	nN := math.Inf(1)
+	if kmin > 0 {
+		nN = math.Abs(nu1-nu0) * (1/kmin + edge) / h
+	}
+	nM := 2 * length / h
+	mode := gridT
+	x := nT
+	switch {
+	case nT <= nN && nT <= 1.5*nM:
+	case nN <= 1.5*nM:
+		mode, x = gridNu, nN
+	default:
+		mode, x = gridMerged, nM
+	}
+	n := arcSamples
+	if mode == gridMerged {
+		n = 2 * arcSamples // at least arcSamples from each grid
 	}
 	if x > float64(n) {
 		n = int(min(x+1, maxSamples))
 	}
 	ts, v, grid := a.ts[:], a.vs[:], a.grid[:]
 	var m int
-	if single {
+	switch mode {
+	case gridT:
 		m = f.mergedGrid(t0, t1, nu0, nu1, n, grid[:0], false)
-	} else {
+	case gridNu:
+		m = f.normalGrid(nu0, nu1, n, grid[:0])
+	default:
 		m = f.mergedGrid(t0, t1, nu0, nu1, n/2, grid[:0], true)
 	}
+	g.nu = mode == gridNu
 	for j := 0; j < m; j++ {
-		ts[j] = grid[j].t
+		ts[j] = grid[j].t // the abscissa: ν on the normal-angle grid
 	}
 	lo, hi = min(d0, d1), max(d0, d1)
 	v[0], v[m-1] = d0, d1
@@ -453,7 +474,7 @@ func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64) flo
 			i = m - 2
 		}
 		xh := 0.5 * (x[j] + x[i])
-		yh := f.circleDev(xh, g)
+		yh := f.devAt(xh, g)
 		if math.IsNaN(yh) {
 			return sign * math.Inf(1)
 		}
@@ -466,7 +487,7 @@ func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64) flo
 		if !ok || (xv-x[j])*(xh-xv) <= 0 || sign*yv <= sign*v[j] {
 			return v[j]
 		}
-		y := f.circleDev(xv, g)
+		y := f.devAt(xv, g)
 		if math.IsNaN(y) {
 			return sign * math.Inf(1)
 		}
@@ -485,7 +506,7 @@ func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64) flo
 		if !ok {
 			return best
 		}
-		y := f.circleDev(xv, g)
+		y := f.devAt(xv, g)
 		if math.IsNaN(y) {
 			return sign * math.Inf(1)
 		}
@@ -561,8 +582,68 @@ func (f *frame) paramAtNormal(nu float64) float64 {
 	return math.Atan2(f.ry*s, f.rx*c) + n*math.Pi
 }
 
-// sample is a grid point: the curve parameter and its sine and cosine.
+// sample is a grid point: the curve parameter (or, on the normal-angle
+// grid, the normal angle) and the sine and cosine of the parameter.
 type sample struct{ t, s, c float64 }
+
+// The grids devRange samples on.
+const (
+	gridT      = iota // uniform in t
+	gridNu            // uniform in the normal angle ν, which is the abscissa
+	gridMerged        // both, merged in order of t
+)
+
+// normalGrid appends to dst ν0, n steps uniform in the normal angle and
+// ν1, with the sines and cosines of their feet (by rotation, recomputed
+// every reseed steps; not set at the ends), and returns the count.
+func (f *frame) normalGrid(nu0, nu1 float64, n int, dst []sample) int {
+	dst = append(dst, sample{t: nu0})
+	hn := (nu1 - nu0) / float64(n+1)
+	shN, chN := math.Sincos(hn)
+	var sn, cn float64
+	for j := 1; j <= n; j++ {
+		if (j-1)%reseed == 0 {
+			sn, cn = math.Sincos(nu0 + float64(j)*hn)
+		}
+		a, b := f.rx*cn, f.ry*sn
+		h := math.Sqrt(a*a + b*b)
+		dst = append(dst, sample{t: nu0 + float64(j)*hn, s: b / h, c: a / h})
+		sn, cn = sn*chN+cn*shN, cn*chN-sn*shN
+	}
+	dst = append(dst, sample{t: nu1})
+	return len(dst)
+}
+
+// devAt returns λ at the abscissa x of g's grid: the parameter t, or the
+// normal angle on the normal-angle grid.
+func (f *frame) devAt(x float64, g *arcGeom) float64 {
+	if !g.nu {
+		return f.circleDev(x, g)
+	}
+	s, c := math.Sincos(x)
+	a, b := f.rx*c, f.ry*s
+	h := math.Sqrt(a*a + b*b)
+	return f.circleDevSC(b/h, a/h, g)
+}
+
+// edgeSpeedMax returns the largest of vmax and the speeds at offset off of
+// the vertices (multiples of π/2) strictly between t0 and t1.
+func (f *frame) edgeSpeedMax(t0, t1, off, vmax float64) float64 {
+	if t1 < t0 {
+		t0, t1 = t1, t0
+	}
+	for q := math.Floor(t0/(math.Pi/2)) + 1; q*(math.Pi/2) < t1; q++ {
+		v := f.ry // at t = 0 or π
+		if int64(q)&1 != 0 {
+			v = f.rx
+		}
+		vmax = max(vmax, v+off*f.rx*f.ry/(v*v))
+		if q > math.Floor(t0/(math.Pi/2))+4 {
+			break
+		}
+	}
+	return vmax
+}
 
 // reseed is how many steps the sine and cosine are carried by rotation
 // before being computed afresh (the rounding grows by a few ulps a step).
