@@ -129,6 +129,7 @@ type Approximator struct {
 	n      int     // segments emitted
 	lineDt float64 // parameter span of the last chord
 	limit  int     // segments allowed before the approximation counts as stalled
+	nEst   float64 // the guard's estimate of N*
 	err    error
 	arcs   arcState
 	// Scratch space of the arc approximator's deviation measure, kept
@@ -203,6 +204,7 @@ func (a *Approximator) Reset(s Spec) error {
 	// A guard against a stepping bug running away: eight times the
 	// asymptotic minimum is far beyond what either approximator needs.
 	a.limit = int(8*n) + 256
+	a.nEst = n
 	if s.Geometry == Arcs {
 		a.arcs.start(a)
 	}

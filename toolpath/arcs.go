@@ -862,6 +862,10 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	dt := corr * pred
 	if s.lastDt > 0 {
 		dt = min(dt, 4*s.lastDt)
+	} else if a.nEst > 0 {
+		// The first step, often from a vertex where κ′ vanishes and the
+		// guess runs far: no more than twice the average step of N*.
+		dt = min(dt, 2*math.Abs(a.tEnd-a.spec.From)/a.nEst)
 	}
 	dt = min(dt, math.Pi)
 	// Near the end, close with one biarc when it fits; when little is

@@ -53,5 +53,5 @@ func ExampleApproximator_Next() {
 	fmt.Println("segments:", n, "decimals:", a.Decimals(), "error:", a.Err())
 	// Output:
 	// first: arc from (73.010, 10.000)
-	// segments: 29 decimals: 4 error: <nil>
+	// segments: 28 decimals: 4 error: <nil>
 }
