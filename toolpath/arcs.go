@@ -961,7 +961,7 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 		if math.IsInf(hi, 1) {
 			hi = dt
 		}
-		for _, x := range [...]float64{4, 2, 1, 0.5, 0.25} {
+		for _, x := range [...]float64{2, 1, 0.5} {
 			if x*hi < remaining {
 				if seg, ok := s.rescue(a, s.tp+a.sigma*x*hi); ok {
 					return seg, true
