@@ -225,8 +225,11 @@ func (a *Approximator) EstimateSegments() float64 {
 	return lowerBound(&a.f, a.spec.Geometry, a.hi-a.lo, a.spec.From, a.tEnd)
 }
 
-// quickEstimate is a cheap N* for the segment-count guard: 4-point Gauss
-// on at most 16 panels (see lowerBoundFixed); the guard has a wide margin.
+// quickEstimate is a cheap N* for the segment-count guard: two-point
+// Gauss on at most 16 panels (see lowerBoundFixed), measured against
+// [LowerBound] at 0.94 to 1.0 of it for b/a ≥ 0.1 and down to 0.54 for
+// lines round a needle (b/a = 0.001) with an offset as long as it is; the
+// guard has a wide margin.
 func (a *Approximator) quickEstimate() float64 {
 	return lowerBoundFixed(&a.f, a.spec.Geometry, a.hi-a.lo, a.spec.From, a.tEnd)
 }
@@ -346,7 +349,10 @@ func lowerBoundFixed(f *frame, g Geometry, w float64, from, to float64) float64 
 	}
 	sum := 0.0
 	for k := 1; k < n; k++ {
-		sum += gauss4(integrand, ends[k-1], ends[k])
+		// Two-point Gauss–Legendre: the guard needs no more.
+		m, h := 0.5*(ends[k-1]+ends[k]), 0.5*(ends[k]-ends[k-1])
+		const x = 0.5773502691896258 // 1/√3
+		sum += h * (integrand(m-x*h) + integrand(m+x*h))
 	}
 	return sum
 }

@@ -250,6 +250,7 @@ func (f *frame) circleDevSC(s, c float64, g *arcGeom) float64 {
 // edge and of its middle.
 type foot struct {
 	t, k, nu, vEdge, vMid float64
+	v, kp                 float64 // speed and dκ/ds of the intended curve
 }
 
 // footAt returns the foot at t.
@@ -260,6 +261,11 @@ func (a *Approximator) footAt(t float64) foot {
 	v2 := f.rx*f.rx*s*s + f.ry*f.ry*c*c
 	v := math.Sqrt(v2)
 	ke := f.rx * f.ry / (v2 * v)
+	g1 := 1 + f.d*ke
+	// dκ/ds = −3·rx·ry·(rx² − ry²)·sin t·cos t / v⁶ (frame.ellipseCurvature),
+	// over (1 + d·κ)³ on the parallel curve; the signs of s and c are
+	// those of t's (reduced by a multiple of π, which keeps their product).
+	dke := -3 * f.rx * f.ry * (f.rx*f.rx - f.ry*f.ry) * s * c / (v2 * v2 * v2)
 	edge := max(math.Abs(a.lo), math.Abs(a.hi))
 	return foot{
 		t:     t,
@@ -267,6 +273,8 @@ func (a *Approximator) footAt(t float64) foot {
 		nu:    math.Atan2(f.rx*s, f.ry*c) + n*math.Pi,
 		vEdge: v + (f.d+edge)*f.rx*f.ry/v2,
 		vMid:  v + (f.d+a.mid())*f.rx*f.ry/v2,
+		v:     v + f.d*f.rx*f.ry/v2,
+		kp:    dke / (g1 * g1 * g1),
 	}
 }
 
@@ -393,16 +401,16 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 		// other one too only if that bound could overtake it.
 		mid, miss4 := a.mid(), 0.5*(a.hi-a.lo)/2
 		if v[jmax]-mid >= mid-v[jmin] {
-			hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.25*miss))
+			hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.5*miss))
 			if mid-(v[jmin]-miss4) > hi-mid {
-				lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.25*miss))
+				lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.5*miss))
 			} else {
 				lo = min(lo, v[jmin]-miss4)
 			}
 		} else {
-			lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.25*miss))
+			lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.5*miss))
 			if v[jmax]+miss4-mid > mid-lo {
-				hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.25*miss))
+				hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.5*miss))
 			} else {
 				hi = max(hi, v[jmax]+miss4)
 			}
@@ -854,7 +862,7 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	// First guess: the steady pattern's span for the curvature change at
 	// the middle of the step, times what that prediction missed by on
 	// the last step.
-	pred := a.patternStep(s.tp + a.sigma*0.5*a.patternStep(s.tp))
+	pred := a.patternStep(s.tp + a.sigma*0.5*a.patternStepAt(&s.foot))
 	corr := s.corr
 	if corr == 0 {
 		corr = 1
@@ -993,11 +1001,21 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 // L = (72√3·w/|κ′|)^(1/3) for the half-width w.
 func (a *Approximator) patternStep(t float64) float64 {
 	f := &a.f
-	ke, dke := f.ellipseCurvature(t)
+	n := math.Round(t / math.Pi)
+	s, c := math.Sincos(t - n*math.Pi)
+	v2 := f.rx*f.rx*s*s + f.ry*f.ry*c*c
+	v := math.Sqrt(v2)
+	ke := f.rx * f.ry / (v2 * v)
 	g1 := 1 + f.d*ke
-	kp := math.Abs(dke / (g1 * g1 * g1))
-	l := math.Cbrt(36 * math.Sqrt(3) * (a.hi - a.lo) * arcTarget / max(kp, 1e-300))
-	return min(l/f.speed(t, f.d), math.Pi)
+	dke := -3 * f.rx * f.ry * (f.rx*f.rx - f.ry*f.ry) * s * c / (v2 * v2 * v2)
+	x := foot{v: v + f.d*f.rx*f.ry/v2, kp: dke / (g1 * g1 * g1)}
+	return a.patternStepAt(&x)
+}
+
+// patternStepAt is patternStep at a foot.
+func (a *Approximator) patternStepAt(x *foot) float64 {
+	l := math.Cbrt(36 * math.Sqrt(3) * (a.hi - a.lo) * arcTarget / max(math.Abs(x.kp), 1e-300))
+	return min(l/x.v, math.Pi)
 }
 
 // patternSlope returns the slope g of the deviation at the joins of the
