@@ -258,14 +258,8 @@ func (a *Approximator) footAt(t float64) foot {
 	f := &a.f
 	n := math.Round(t / math.Pi)
 	s, c := math.Sincos(t - n*math.Pi)
-	v2 := f.rx*f.rx*s*s + f.ry*f.ry*c*c
+	v2, ke, kp := f.footBase(s, c)
 	v := math.Sqrt(v2)
-	ke := f.rx * f.ry / (v2 * v)
-	g1 := 1 + f.d*ke
-	// dκ/ds = −3·rx·ry·(rx² − ry²)·sin t·cos t / v⁶ (frame.ellipseCurvature),
-	// over (1 + d·κ)³ on the parallel curve; the signs of s and c are
-	// those of t's (reduced by a multiple of π, which keeps their product).
-	dke := -3 * f.rx * f.ry * (f.rx*f.rx - f.ry*f.ry) * s * c / (v2 * v2 * v2)
 	edge := max(math.Abs(a.lo), math.Abs(a.hi))
 	return foot{
 		t:     t,
@@ -274,8 +268,21 @@ func (a *Approximator) footAt(t float64) foot {
 		vEdge: v + (f.d+edge)*f.rx*f.ry/v2,
 		vMid:  v + (f.d+a.mid())*f.rx*f.ry/v2,
 		v:     v + f.d*f.rx*f.ry/v2,
-		kp:    dke / (g1 * g1 * g1),
+		kp:    kp,
 	}
+}
+
+// footBase returns, from the sine and cosine of t (or of t less a
+// multiple of π, which keeps their product), the ellipse's |p′(t)|², its
+// curvature κ and the intended curve's dκ/ds: the ellipse's
+// −3·rx·ry·(rx² − ry²)·sin t·cos t / |p′|⁶ (frame.ellipseCurvature) over
+// (1 + d·κ)³.
+func (f *frame) footBase(s, c float64) (v2, ke, kp float64) {
+	v2 = f.rx*f.rx*s*s + f.ry*f.ry*c*c
+	ke = f.rx * f.ry / (v2 * math.Sqrt(v2))
+	g1 := 1 + f.d*ke
+	dke := -3 * f.rx * f.ry * (f.rx*f.rx - f.ry*f.ry) * s * c / (v2 * v2 * v2)
+	return v2, ke, dke / (g1 * g1 * g1)
 }
 
 // devRange returns the extremes of the deviation of the arc g over the
@@ -1001,14 +1008,9 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 // L = (72√3·w/|κ′|)^(1/3) for the half-width w.
 func (a *Approximator) patternStep(t float64) float64 {
 	f := &a.f
-	n := math.Round(t / math.Pi)
-	s, c := math.Sincos(t - n*math.Pi)
-	v2 := f.rx*f.rx*s*s + f.ry*f.ry*c*c
-	v := math.Sqrt(v2)
-	ke := f.rx * f.ry / (v2 * v)
-	g1 := 1 + f.d*ke
-	dke := -3 * f.rx * f.ry * (f.rx*f.rx - f.ry*f.ry) * s * c / (v2 * v2 * v2)
-	x := foot{v: v + f.d*f.rx*f.ry/v2, kp: dke / (g1 * g1 * g1)}
+	s, c := math.Sincos(t)
+	v2, _, kp := f.footBase(s, c)
+	x := foot{v: math.Sqrt(v2) + f.d*f.rx*f.ry/v2, kp: kp}
 	return a.patternStepAt(&x)
 }
 
