@@ -208,41 +208,18 @@ func checkApproximation(t fataler, s Spec) {
 	}
 }
 
-// parallel returns the parallel curve at d of the ellipse with semi-major
-// a along its own y, ratio b/a, centred at (1, 1) and turned by 1 rad.
-func parallel(t *testing.T, a, ratio, d float64) ellipse.Parallel {
-	e, err := ellipse.New(ellipse.Point{X: 1, Y: 1}, a*ratio, a, 1)
+// curveOf returns the parallel curve at d of the ellipse with semi-axes
+// rx, ry along its own x and y, centred at c and turned by rot.
+func curveOf(t *testing.T, c ellipse.Point, rx, ry, rot, d float64) ellipse.Parallel {
+	e, err := ellipse.New(c, rx, ry, rot)
 	if err != nil {
 		t.Fatal(err)
 	}
-	c, err := e.Parallel(d)
+	p, err := e.Parallel(d)
 	if err != nil {
 		t.Fatal(err)
 	}
-	return c
-}
-
-// parallelX is parallel with the semi-major axis along the own x.
-func parallelX(t *testing.T, a, ratio, d float64) ellipse.Parallel {
-	e, err := ellipse.New(ellipse.Point{X: 1, Y: 1}, a, a*ratio, 1)
-	if err != nil {
-		t.Fatal(err)
-	}
-	c, err := e.Parallel(d)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return c
-}
-
-// needleAt returns an ellipse of semi-axes a (own x) and a/1000, turned
-// by rot, centred at (1, y).
-func needleAt(t *testing.T, a, rot, y float64) ellipse.Parallel {
-	e, err := ellipse.New(ellipse.Point{X: 1, Y: y}, a, a*1e-3, rot)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return e.Curve()
+	return p
 }
 
 // Shapes that once broke a promise, found by the property test above
@@ -255,27 +232,27 @@ func TestApproximationRegressions(t *testing.T) {
 		// A wide arc over a needle's tip: its circle met the fanned-out
 		// normals on the far side, off the arc, and the deviation of
 		// 0.012 went unseen.
-		{"wide arc over a needle's tip", Spec{Curve: parallel(t, math.Pow(10, -0.830078125), 1e-3, 0), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 0.0005207061767578125}},
+		{"wide arc over a needle's tip", Spec{Curve: curveOf(t, ellipse.Point{X: 1, Y: 1}, math.Pow(10, -0.830078125)*1e-3, math.Pow(10, -0.830078125), 1, 0), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 0.0005207061767578125}},
 		// A closing biarc whose join sat on the zone's edge, with the
 		// arc dipping 8e-7 past it between the last sample and the end.
 		// Round the tip of a needle thinner than the zone an arc ended
 		// near the zone's edge with its tangent leading out: no single
 		// arc went on, and a step of 1e-12 that left the zone was taken.
-		{"no way on round a needle's tip", Spec{Curve: parallel(t, 0.05, 1e-3, 0), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 0.921875}},
+		{"no way on round a needle's tip", Spec{Curve: curveOf(t, ellipse.Point{X: 1, Y: 1}, 0.05*1e-3, 0.05, 1, 0), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 0.921875}},
 		// A flat ellipse's wide parallel curve: round its cap the t and
 		// normal-angle grids gave two samples each, and polishing found
 		// a hump 1% of the width short.
-		{"samples round a wide offset's cap", Spec{Curve: parallelX(t, math.Pow(10, 3.0517578125e-05), math.Pow(10, -2.97906494140625), 0.7666015625), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 1.44140625}},
+		{"samples round a wide offset's cap", Spec{Curve: curveOf(t, ellipse.Point{X: 1, Y: 1}, math.Pow(10, 3.0517578125e-05), math.Pow(10, 3.0517578125e-05)*math.Pow(10, -2.97906494140625), 1, 0.7666015625), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 1.44140625}},
 		// A needle far from the origin: a biarc's short first arc fixed
 		// the join's tangent to 1e-9 only, and building the second arc
 		// forwards carried that kink to the start of the path.
-		{"needle at y = 1000", Spec{Curve: needleAt(t, math.Pow(10, 3.814697265625e-06), -4, 1000), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 0.1875}},
+		{"needle at y = 1000", Spec{Curve: curveOf(t, ellipse.Point{X: 1, Y: 1000}, math.Pow(10, 3.814697265625e-06), math.Pow(10, 3.814697265625e-06)*1e-3, -4, 0), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 0.1875}},
 		// Lines round a needle with an offset as large as the needle
 		// is long: the segment-count guard, estimated on panels evenly
 		// spaced in t, missed the caps (a sixth of the count) and
 		// stopped a sound approximation as stalled.
-		{"count guard on a stadium (lines)", Spec{Curve: parallelX(t, math.Pow(10, 1.25), 1e-3, 17.78279410038923), Zone: Band, Tol: 1e-4, Geometry: Lines, From: 1}},
-		{"closing join on the zone's edge", Spec{Curve: parallel(t, math.Pow(10, 0.8241424560546875), math.Pow(10, -1.2688522338867188), 0.7862548828125), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 7}},
+		{"count guard on a stadium (lines)", Spec{Curve: curveOf(t, ellipse.Point{X: 1, Y: 1}, math.Pow(10, 1.25), math.Pow(10, 1.25)*1e-3, 1, 17.78279410038923), Zone: Band, Tol: 1e-4, Geometry: Lines, From: 1}},
+		{"closing join on the zone's edge", Spec{Curve: curveOf(t, ellipse.Point{X: 1, Y: 1}, math.Pow(10, 0.8241424560546875)*math.Pow(10, -1.2688522338867188), math.Pow(10, 0.8241424560546875), 1, 0.7862548828125), Zone: Outside, Tol: 1e-4, Geometry: Arcs, From: 7}},
 	} {
 		t.Run(c.name, func(t *testing.T) { checkApproximation(t, c.s) })
 	}
