@@ -258,8 +258,7 @@ func (a *Approximator) footAt(t float64) foot {
 	f := &a.f
 	n := math.Round(t / math.Pi)
 	s, c := math.Sincos(t - n*math.Pi)
-	v2, ke, kp := f.footBase(s, c)
-	v := math.Sqrt(v2)
+	v2, v, ke, kp := f.footBase(s, c)
 	edge := max(math.Abs(a.lo), math.Abs(a.hi))
 	return foot{
 		t:     t,
@@ -273,16 +272,17 @@ func (a *Approximator) footAt(t float64) foot {
 }
 
 // footBase returns, from the sine and cosine of t (or of t less a
-// multiple of π, which keeps their product), the ellipse's |p′(t)|², its
-// curvature κ and the intended curve's dκ/ds: the ellipse's
+// multiple of π, which keeps their product), the ellipse's |p′(t)|² and
+// |p′(t)|, its curvature κ and the intended curve's dκ/ds: the ellipse's
 // −3·rx·ry·(rx² − ry²)·sin t·cos t / |p′|⁶ (frame.ellipseCurvature) over
 // (1 + d·κ)³.
-func (f *frame) footBase(s, c float64) (v2, ke, kp float64) {
+func (f *frame) footBase(s, c float64) (v2, v, ke, kp float64) {
 	v2 = f.rx*f.rx*s*s + f.ry*f.ry*c*c
-	ke = f.rx * f.ry / (v2 * math.Sqrt(v2))
+	v = math.Sqrt(v2)
+	ke = f.rx * f.ry / (v2 * v)
 	g1 := 1 + f.d*ke
 	dke := -3 * f.rx * f.ry * (f.rx*f.rx - f.ry*f.ry) * s * c / (v2 * v2 * v2)
-	return v2, ke, dke / (g1 * g1 * g1)
+	return v2, v, ke, dke / (g1 * g1 * g1)
 }
 
 // devRange returns the extremes of the deviation of the arc g over the
@@ -1009,8 +1009,8 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 func (a *Approximator) patternStep(t float64) float64 {
 	f := &a.f
 	s, c := math.Sincos(t)
-	v2, _, kp := f.footBase(s, c)
-	x := foot{v: math.Sqrt(v2) + f.d*f.rx*f.ry/v2, kp: kp}
+	v2, v, _, kp := f.footBase(s, c)
+	x := foot{v: v + f.d*f.rx*f.ry/v2, kp: kp}
 	return a.patternStepAt(&x)
 }
 
