@@ -125,13 +125,19 @@ type Approximator struct {
 	sigma  float64 // +1 counter-clockwise, −1 clockwise
 	t      float64 // current parameter
 	tEnd   float64
+	span   float64 // |tEnd − From|
 	done   bool
 	n      int     // segments emitted
 	lineDt float64 // parameter span of the last chord
 	limit  int     // segments allowed before the approximation counts as stalled
 	nEst   float64 // the guard's estimate of N*
-	err    error
-	arcs   arcState
+	look   bool    // the arc chain looks one arc ahead (see arcState.start)
+	// planning: the arc chain is building a stretch backwards (see
+	// arcState.planExit) into plan.
+	planning bool
+	plan     [planMax]Segment
+	err      error
+	arcs     arcState
 	// Scratch space of the arc approximator's deviation measure, kept
 	// here so that no call clears 10 kB of stack.
 	grid [2*maxSamples + 2]sample
@@ -197,6 +203,7 @@ func (a *Approximator) Reset(s Spec) error {
 			a.sigma = -1
 		}
 	}
+	a.span = math.Abs(a.tEnd - s.From)
 	n := a.quickEstimate()
 	if n > MaxSegments {
 		return &SpecError{Field: "Tol", Value: s.Tol, Limit: n, Err: ErrTooFine}
