@@ -355,8 +355,16 @@ func TestApproximationIsDeterministicAndResettable(t *testing.T) {
 
 func TestApproximatorAllocatesNothingPerSegment(t *testing.T) {
 	e, _ := ellipse.FromSize(600, 400, ellipse.Point{}, 0.2)
-	for _, g := range []Geometry{Lines, Arcs} {
-		s := Spec{Curve: e.Curve(), Zone: Band, Tol: 0.001, Geometry: g}
+	// A slot 300 x 4 with a 2 mm offset at 0.05: short and strongly
+	// varying, so the arcs look ahead and plan stretches backwards.
+	slot, _ := ellipse.FromSize(300, 4, ellipse.Point{}, 0.2)
+	slotCurve, _ := slot.Parallel(2)
+	for _, s := range []Spec{
+		{Curve: e.Curve(), Zone: Band, Tol: 0.001, Geometry: Lines},
+		{Curve: e.Curve(), Zone: Band, Tol: 0.001, Geometry: Arcs},
+		{Curve: slotCurve, Zone: Outside, Tol: 0.05, Geometry: Arcs},
+	} {
+		g := s.Geometry
 		var a Approximator
 		allocs := testing.AllocsPerRun(5, func() {
 			if err := a.Reset(s); err != nil {

@@ -6,14 +6,25 @@ import (
 	"github.com/focitools/foci/ellipse"
 )
 
-// benchSpecs are the shapes the approximation benchmarks run on: an
-// ordinary tabletop, a flat gasket and a nearly round mirror, in mm.
-func benchSpec(b *testing.B, w, h, tol float64, g Geometry) Spec {
+// benchSpec returns a shape the approximation benchmarks run on, in mm:
+// an ordinary tabletop, a flat gasket and a nearly round mirror traced
+// on the line (off 0, band), and a slot cut on its waste side (a 300 x 4
+// ellipse, a 2 mm tool radius outward, the outside zone), short and
+// strongly varying, where the arcs look ahead and plan backwards.
+func benchSpec(b *testing.B, w, h, off, tol float64, g Geometry) Spec {
 	e, err := ellipse.FromSize(w, h, ellipse.Point{X: 10, Y: 20}, 0.3)
 	if err != nil {
 		b.Fatal(err)
 	}
-	return Spec{Curve: e.Curve(), Zone: Band, Tol: tol, Geometry: g}
+	c, err := e.Parallel(off)
+	if err != nil {
+		b.Fatal(err)
+	}
+	z := Band
+	if off != 0 {
+		z = Outside
+	}
+	return Spec{Curve: c, Zone: z, Tol: tol, Geometry: g}
 }
 
 // BenchmarkApproximate reports ns per segment, segments per second, the
@@ -21,19 +32,20 @@ func benchSpec(b *testing.B, w, h, tol float64, g Geometry) Spec {
 // cost of one arc-length evaluation for comparison.
 func BenchmarkApproximate(b *testing.B) {
 	for _, c := range []struct {
-		name      string
-		w, h, tol float64
-		g         Geometry
+		name           string
+		w, h, off, tol float64
+		g              Geometry
 	}{
-		{"lines/600x400/0.01", 600, 400, 0.01, Lines},
-		{"arcs/600x400/0.01", 600, 400, 0.01, Arcs},
-		{"lines/600x60/0.001", 600, 60, 0.001, Lines},
-		{"arcs/600x60/0.001", 600, 60, 0.001, Arcs},
-		{"lines/600x400/1e-5", 600, 400, 1e-5, Lines},
-		{"arcs/600x400/1e-5", 600, 400, 1e-5, Arcs},
+		{"lines/600x400/0.01", 600, 400, 0, 0.01, Lines},
+		{"arcs/600x400/0.01", 600, 400, 0, 0.01, Arcs},
+		{"lines/600x60/0.001", 600, 60, 0, 0.001, Lines},
+		{"arcs/600x60/0.001", 600, 60, 0, 0.001, Arcs},
+		{"lines/600x400/1e-5", 600, 400, 0, 1e-5, Lines},
+		{"arcs/600x400/1e-5", 600, 400, 0, 1e-5, Arcs},
+		{"arcs/slot300x4+2/0.05", 300, 4, 2, 0.05, Arcs},
 	} {
 		b.Run(c.name, func(b *testing.B) {
-			s := benchSpec(b, c.w, c.h, c.tol, c.g)
+			s := benchSpec(b, c.w, c.h, c.off, c.tol, c.g)
 			var a Approximator
 			segs := 0
 			b.ReportAllocs()
