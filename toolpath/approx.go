@@ -136,6 +136,8 @@ type Approximator struct {
 	// arcState.planExit) into plan.
 	planning bool
 	plan     [planMax]Segment
+	fwd      [planMax + 1]Segment
+	fwdState arcState
 	err      error
 	arcs     arcState
 	// Scratch space of the arc approximator's deviation measure, kept

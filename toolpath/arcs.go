@@ -104,7 +104,11 @@ type arcState struct {
 	dev0    float64 // the deviation the path must end with
 	// A stretch planned backwards (see planExit): nPlan segments left in
 	// a.plan, emitted last first, ending at planT (the path's end when
-	// planEnd); noPlan is a stretch end where planning failed.
+	// planEnd); noPlan is the end of the last stretch planned. Where the
+	// forward chain did better, its nFwd segments are in a.fwd (iFwd
+	// emitted so far), and a.fwdState is the state it ended in.
+	nFwd    int
+	iFwd    int
 	nPlan   int
 	planT   float64
 	planEnd bool
@@ -909,8 +913,14 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	if s.nPlan > 0 {
 		return s.nextPlanned(a), true
 	}
+	if s.iFwd < s.nFwd {
+		return s.nextForward(a), true
+	}
 	if a.look && !a.planning && s.falling(a) && s.planExit(a) {
-		return s.nextPlanned(a), true
+		if s.nPlan > 0 {
+			return s.nextPlanned(a), true
+		}
+		return s.nextForward(a), true
 	}
 	remaining := math.Abs(a.tEnd - s.tp)
 	if remaining <= 0 {
@@ -967,13 +977,12 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	// A step never reaches the end, which is the closing biarcs' job, and
 	// leaves them about one step.
 	maxDt := max(0.5*remaining, remaining-typical)
-	dt0 := dt
 	best, bestDt, hi, dt := s.search(a, dt, maxDt, 0, false)
 	if bestDt > 0 && a.look {
 		score := bestDt + s.secondStep(a, best, bestDt, pred, remaining)
 		m, w := a.mid(), 0.8*(a.hi-a.mid())
 		for _, x := range lookDevs {
-			tr, d, _, _ := s.search(a, dt0, maxDt, m+x*w, true)
+			tr, d, _, _ := s.search(a, bestDt, maxDt, m+x*w, true)
 			if d == 0 {
 				continue
 			}
@@ -1034,8 +1043,10 @@ func (s *arcState) falling(a *Approximator) bool {
 // curvature falls fast beneath them (each arc starts where the curve
 // turns fastest, with its tangent fixed); run the other way, the same
 // stretch is one where the curvature rises, which the chain covers with
-// nearly the fewest arcs. It reports whether the stretch was planned
-// (it fits in a.plan and closed); else the chain goes on forward.
+// nearly the fewest arcs. The forward chain is run over the stretch as
+// well and kept if it takes no more arcs. It reports whether the stretch
+// was done either way (the backward chain must fit in a.plan and close);
+// else the chain goes on forward.
 func (s *arcState) planExit(a *Approximator) bool {
 	f := &a.f
 	base := 0.0
@@ -1051,6 +1062,7 @@ func (s *arcState) planExit(a *Approximator) bool {
 	if tT == s.noPlan {
 		return false
 	}
+	s.noPlan = tT
 	// A stretch that would end short of the path's end by less than half
 	// an average step runs to the end.
 	toEnd := (a.tEnd-tT)*a.sigma < 0.5*a.span/max(a.nEst, 1)
@@ -1092,29 +1104,42 @@ func (s *arcState) planExit(a *Approximator) bool {
 		a.err = nil
 		ok = false
 	}
-	if ok {
-		// The forward chain over the same stretch, counted: plan only
-		// where that saves arcs.
-		fs := *s
-		nf := 0
-		for nf <= n && (tT-fs.tp)*a.sigma > 0 {
-			if _, more := fs.next(a); !more {
-				break
-			}
-			nf++
-		}
-		a.err = nil
-		if nf <= n {
-			ok = false
-		}
-	}
-	a.planning = false
 	if !ok {
-		s.noPlan = tT
+		a.planning = false
 		return false
 	}
+	// The forward chain over the same stretch, kept: the plan is used
+	// only where it saves arcs, else these are.
+	fs := *s
+	nf := 0
+	for nf <= n && (tT-fs.tp)*a.sigma > 0 {
+		seg, more := fs.next(a)
+		if !more {
+			break
+		}
+		a.fwd[nf] = seg
+		nf++
+	}
+	a.planning = false
+	if a.err == nil && nf <= n && nf > 0 {
+		a.fwdState = fs
+		s.nFwd, s.iFwd = nf, 0
+		return true
+	}
+	a.err = nil
 	s.nPlan, s.planT, s.planEnd = n, tT, toEnd
 	return true
+}
+
+// nextForward returns the next segment of the forward chain's run over a
+// stretch (see planExit); after the last, the state is where it ended.
+func (s *arcState) nextForward(a *Approximator) Segment {
+	seg := a.fwd[s.iFwd]
+	s.iFwd++
+	if s.iFwd == s.nFwd {
+		*s = a.fwdState
+	}
+	return seg
 }
 
 // nextPlanned returns the next segment of a planned stretch: the backward
@@ -1506,3 +1531,5 @@ func (s *arcState) nextClosing(a *Approximator) (Segment, bool) {
 	s.foot, s.haveSlope = a.footAt(t1), false
 	return first, true
 }
+
+var zzTries1, zzTries2 = 4, 3
