@@ -832,11 +832,10 @@ type trial struct {
 }
 
 // try builds and measures the step to foot parameter t1.
-func (a *Approximator) try(s *arcState, t1 float64) trial {
+func (a *Approximator) try(s *arcState, t1 float64, tr *trial) {
 	// End deviation by the deadbeat rule (see endDeviation).
 	f1, fm := a.footAt(t1), a.footAt(0.5*(s.tp+t1))
-	tr, _, _ := a.tryEnd(s, &fm, &f1, a.endDeviation(s, &fm, &f1))
-	return tr
+	a.tryEnd(s, &fm, &f1, a.endDeviation(s, &fm, &f1), tr)
 }
 
 // slope returns the slope of the deviation at the current point, δ′: the
@@ -852,15 +851,15 @@ func (s *arcState) slope(a *Approximator) float64 {
 	return s.dslope
 }
 
-// tryEnd builds and measures the step to foot parameter t1 ending at
-// deviation e1.
-func (a *Approximator) tryEnd(s *arcState, fm, f1 *foot, e1 float64) (trial, float64, float64) {
+// tryEnd builds and measures, into tr, the step to foot parameter t1
+// ending at deviation e1, and returns the extremes of its deviation.
+func (a *Approximator) tryEnd(s *arcState, fm, f1 *foot, e1 float64, tr *trial) (lo, hi float64) {
 	f := &a.f
 	t1 := f1.t
 	m := a.mid()
 	q, _, n := f.at(t1, f.d+e1)
 	k, end := arcTo(s.p, s.tan, q)
-	tr := trial{k: k, end: end, q: q, dev1: e1, t1: t1}
+	tr.k, tr.end, tr.q, tr.dev1, tr.t1 = k, end, q, e1, t1
 	chord := q.sub(s.p).norm()
 	if k == 0 || math.Abs(1/k) > arcMaxRadius*(f.e.MaxRadiusOfCurvature()+math.Abs(f.d)) || chord*chord*math.Abs(k)/8 < a.round {
 		// Too flat to write as an arc: a line along the tangent to the
@@ -868,25 +867,25 @@ func (a *Approximator) tryEnd(s *arcState, fm, f1 *foot, e1 float64) (trial, flo
 		den := s.tan.cross(n)
 		if den == 0 {
 			tr.ratio = math.Inf(1)
-			return tr, 0, 0
+			return 0, 0
 		}
 		lam := s.tan.cross(s.p.sub(q)) / den
 		q = q.addScaled(n, lam)
-		tr = trial{k: 0, end: s.tan, q: q, dev1: e1 + lam, t1: t1}
+		tr.k, tr.end, tr.q, tr.dev1 = 0, s.tan, q, e1+lam
 		if q.sub(s.p).dot(s.tan) <= 0 {
 			tr.ratio = math.Inf(1)
-			return tr, 0, 0
+			return 0, 0
 		}
 	}
 	g := a.newArcGeom(s.p, s.tan, tr.k, tr.q)
 	tr.foot = *f1
-	lo, hi := a.devRange(&s.foot, fm, f1, s.dev, tr.dev1, &g)
+	lo, hi = a.devRange(&s.foot, fm, f1, s.dev, tr.dev1, &g)
 	tr.ratio = max((hi-m)/(a.hi-m), (m-lo)/(m-a.lo))
-	return tr, lo, hi
+	return lo, hi
 }
 
 // segment returns the arc or line of a trial from the current state.
-func (s *arcState) segment(tr trial) Segment {
+func (s *arcState) segment(tr *trial) Segment {
 	if tr.k == 0 {
 		return Segment{Kind: Line, Start: Point{X: s.p.x, Y: s.p.y}, End: Point{X: tr.q.x, Y: tr.q.y}}
 	}
@@ -1013,12 +1012,13 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 			a.err = &SpecError{Field: "Tol", Value: a.spec.Tol, Err: ErrNoFit}
 			return Segment{}, false
 		}
-		tr := a.try(s, s.tp+a.sigma*dt)
+		var tr trial
+		a.try(s, s.tp+a.sigma*dt, &tr)
 		if tr.ratio <= arcLimit {
 			best, bestDt = tr, dt
 		}
 	}
-	return s.commit(best, bestDt, pred), true
+	return s.commit(&best, bestDt, pred), true
 }
 
 // falling reports whether the curvature falls ahead of the current
@@ -1165,7 +1165,7 @@ func (s *arcState) nextPlanned(a *Approximator) Segment {
 
 // commit moves the state to the end of the trial tr of span dt and
 // returns its segment; pred is the span the first guess predicted.
-func (s *arcState) commit(tr trial, dt, pred float64) Segment {
+func (s *arcState) commit(tr *trial, dt, pred float64) Segment {
 	seg := s.segment(tr)
 	s.lastDt = dt
 	s.corr = max(0.25, min(4, dt/pred))
@@ -1184,18 +1184,18 @@ func (s *arcState) endgame(a *Approximator, remaining, pred float64) (Segment, b
 			var tr trial
 			switch i {
 			case 0:
-				tr = a.try(s, t1)
+				a.try(s, t1, &tr)
 			default:
-				tr = s.tryStep(a, t1, m+float64(i-2)*w, true)
+				s.tryStep(a, t1, m+float64(i-2)*w, true, &tr)
 			}
 			if !(tr.ratio <= arcLimit) {
 				continue
 			}
 			s2 := *s
-			s2.commit(tr, fr*remaining, pred)
+			s2.commit(&tr, fr*remaining, pred)
 			for _, leg := range [...]float64{1, 0.6, 1.6} {
 				if s2.leg = leg; s2.closeFits(a, 1) {
-					seg := s.commit(tr, fr*remaining, pred)
+					seg := s.commit(&tr, fr*remaining, pred)
 					s.closing, s.n, s.i, s.half, s.leg = true, 1, 0, false, leg
 					s.t0End = s.tp
 					return seg, true
@@ -1238,9 +1238,10 @@ func (s *arcState) search(a *Approximator, dt, maxDt, e1 float64, fixed bool) (b
 	r0 := max((s.dev-m)/(a.hi-m), (m-s.dev)/(m-a.lo))
 	lo, rlo := 0.0, r0
 	hi, rhi := math.Inf(1), math.Inf(1)
+	var tr trial
 	for i := 0; i < arcMaxSteps; i++ {
 		dt = min(dt, maxDt)
-		tr := s.tryStep(a, s.tp+a.sigma*dt, e1, fixed)
+		s.tryStep(a, s.tp+a.sigma*dt, e1, fixed, &tr)
 		r := tr.ratio
 		if r <= arcLimit {
 			if dt > bestDt {
@@ -1288,13 +1289,13 @@ func (s *arcState) search(a *Approximator, dt, maxDt, e1 float64, fixed bool) (b
 }
 
 // tryStep is try with the end deviation e1 when fixed.
-func (s *arcState) tryStep(a *Approximator, t1, e1 float64, fixed bool) trial {
+func (s *arcState) tryStep(a *Approximator, t1, e1 float64, fixed bool, tr *trial) {
 	if !fixed {
-		return a.try(s, t1)
+		a.try(s, t1, tr)
+		return
 	}
 	f1, fm := a.footAt(t1), a.footAt(0.5*(s.tp+t1))
-	tr, _, _ := a.tryEnd(s, &fm, &f1, e1)
-	return tr
+	a.tryEnd(s, &fm, &f1, e1, tr)
 }
 
 // patternStep returns the parameter span of the steady pattern's arc at
@@ -1385,7 +1386,7 @@ func (s *arcState) rescue(a *Approximator, t1 float64) (Segment, bool) {
 			continue
 		}
 		k1, _, j, _, _ := a.biarc(s.p, s.tan, q, tq, s.tp, leg)
-		first := s.segment(trial{k: k1, q: j})
+		first := s.segment(&trial{k: k1, q: j})
 		s.second, s.pending = secondArc(j, q, tq), true
 		s.lastDt = math.Abs(t1 - s.tp)
 		s.p, s.tan, s.tp, s.dev = q, tq, t1, a.mid()
@@ -1524,7 +1525,7 @@ func (s *arcState) nextClosing(a *Approximator) (Segment, bool) {
 	if !ok {
 		return Segment{}, false
 	}
-	first := s.segment(trial{k: k1, q: j})
+	first := s.segment(&trial{k: k1, q: j})
 	s.second = secondArc(j, q, tq)
 	s.half = true
 	s.p, s.tan, s.tp, s.dev = q, tq, t1, a.mid()
