@@ -318,13 +318,15 @@ func LowerBound(curve ellipse.Parallel, g Geometry, zone Zone, tol, from, to flo
 // countDensity returns the integrand of N* in the parameter t.
 func countDensity(f *frame, g Geometry, w float64) func(float64) float64 {
 	return func(t float64) float64 {
-		ke, dke := f.ellipseCurvature(t)
-		g1 := 1 + f.d*ke
-		v := f.speed(t, f.d)
+		// κ, dκ/ds of the curve followed and its speed from one Sincos
+		// (frame.ellipseCurvature and frame.speed each take one).
+		s, c := math.Sincos(t)
+		v2, ve, ke, kp := f.footBase(s, c)
+		v := ve + f.d*f.rx*f.ry/v2
 		if g == Lines {
-			return math.Sqrt(ke/g1/(8*w)) * v
+			return math.Sqrt(ke/(1+f.d*ke)/(8*w)) * v
 		}
-		return math.Cbrt(math.Abs(dke)/(g1*g1*g1)/(96*w)) * v
+		return math.Cbrt(math.Abs(kp)/(96*w)) * v
 	}
 }
 
