@@ -127,10 +127,17 @@ func (s *arcState) start(a *Approximator) {
 	tan := tg.scale(a.sigma)
 	// Start on the steady pattern: crossing the middle of the zone with
 	// slope g = κ′L²/12 (see endDeviation), L from the single-arc model.
+	// Not where the arcs look ahead: there the path's start is where its
+	// closing must end, often round a cap, and a steep start there left
+	// the closing biarcs no room (four of them round one cap); the
+	// curve's own tangent did not.
 	ke, dke := f.ellipseCurvature(a.spec.From)
 	g1 := 1 + f.d*ke
 	kp := a.sigma * dke / (g1 * g1 * g1)
-	if kp != 0 {
+	e := f.e
+	kr := (e.MaxRadiusOfCurvature() + f.d) / (e.MinRadiusOfCurvature() + f.d)
+	look := a.nEst < lookSegments && kr > lookCurvatureRatio
+	if kp != 0 && !look {
 		l := math.Cbrt(62 * (a.hi - a.lo) / math.Abs(kp))
 		l = min(l, math.Pi/4*f.speed(a.spec.From, f.d))
 		g := kp * l * l / 12
@@ -138,9 +145,7 @@ func (s *arcState) start(a *Approximator) {
 		tan = tan.add(n.scale(g)).scale(1 / math.Hypot(1, g))
 	}
 	*s = arcState{p: p, tan: tan, tp: a.spec.From, dev: m, foot: a.footAt(a.spec.From)}
-	e := f.e
-	kr := (e.MaxRadiusOfCurvature() + f.d) / (e.MinRadiusOfCurvature() + f.d)
-	a.look = a.nEst < lookSegments && kr > lookCurvatureRatio
+	a.look = look
 	q, tq, _ := f.at(a.tEnd, f.d+m)
 	s.p0, s.t0, s.dev0 = q, tq.scale(a.sigma), m
 	s.noPlan = math.NaN()
