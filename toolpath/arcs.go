@@ -49,7 +49,7 @@ import (
 //     than the forward chain (counted over the same stretch).
 //
 // On the count test's shapes that pass the gate, the two save a fifth of
-// the arcs and take about six times the work per arc (README).
+// the arcs for about five times the work per arc (README, DEVELOPERS.md).
 
 const (
 	arcSamples = 6
