@@ -211,16 +211,16 @@ func (f *frame) localDir(v vec) vec {
 	return vec{f.cos*v.x + f.sin*v.y, -f.sin*v.x + f.cos*v.y}
 }
 
-// newArcGeom describes the arc from p with tangent tg and signed
+// newArcGeom describes into g the arc from p with tangent tg and signed
 // curvature k that ends at q (k == 0: the line from p along tg).
-func (a *Approximator) newArcGeom(p, tg vec, k float64, q vec) arcGeom {
-	g := arcGeom{p: p, nl: tg.left(), wide: 16 * (a.hi - a.lo + math.Abs(a.lo) + math.Abs(a.hi))}
+func (a *Approximator) newArcGeom(g *arcGeom, p, tg vec, k float64, q vec) {
+	*g = arcGeom{p: p, nl: tg.left(), wide: 16 * (a.hi - a.lo + math.Abs(a.lo) + math.Abs(a.hi))}
 	f := &a.f
 	g.q = q
 	if k == 0 {
 		g.line = true
 		g.lp, g.lnl = f.local(p), f.localDir(g.nl)
-		return g
+		return
 	}
 	g.c = p.addScaled(g.nl, 1/k)
 	g.lc = f.local(g.c)
@@ -232,7 +232,6 @@ func (a *Approximator) newArcGeom(p, tg vec, k float64, q vec) arcGeom {
 	if g.sweep == 0 {
 		g.sweep = 2 * math.Pi
 	}
-	return g
 }
 
 // angle returns the turning from the start to the direction w (in the
@@ -882,7 +881,8 @@ func (a *Approximator) tryEnd(s *arcState, fm, f1 *foot, e1 float64, tr *trial) 
 			return 0, 0
 		}
 	}
-	g := a.newArcGeom(s.p, s.tan, tr.k, tr.q)
+	var g arcGeom
+	a.newArcGeom(&g, s.p, s.tan, tr.k, tr.q)
 	tr.foot = *f1
 	lo, hi = a.devRange(&s.foot, fm, f1, s.dev, tr.dev1, &g)
 	tr.ratio = max((hi-m)/(a.hi-m), (m-lo)/(m-a.lo))
@@ -1386,7 +1386,11 @@ func (a *Approximator) endDeviation(s *arcState, fm, f1 *foot) float64 {
 func (s *arcState) rescue(a *Approximator, t1 float64) (Segment, bool) {
 	q, tq, _ := a.f.at(t1, a.f.d+a.mid())
 	tq = tq.scale(a.sigma)
-	for _, leg := range [...]float64{1, 0.6, 1.6, 0.35, 2.8} {
+	// Short first legs first: a rescue follows a start whose own tangent
+	// leaves no single arc room, and a short first arc turns it soonest
+	// (on the coarse tabletop the 0.35 leg fitted after three others
+	// failed).
+	for _, leg := range [...]float64{0.35, 0.6, 1, 1.6, 2.8} {
 		if !a.biarcFits(s.p, s.tan, s.tp, s.dev, q, tq, t1, a.mid(), leg) {
 			continue
 		}
@@ -1410,12 +1414,13 @@ func (a *Approximator) biarcFits(p, tg vec, tp, dev float64, q, tq vec, t1, dev1
 		return false
 	}
 	devJ := a.f.e.SignedDistance(ptOf(j)) - a.f.d
-	g1 := a.newArcGeom(p, tg, a1, j)
+	var g1, g2 arcGeom
+	a.newArcGeom(&g1, p, tg, a1, j)
 	fp, fj, f1 := a.footAt(tp), a.footAt(tj), a.footAt(t1)
 	fm1, fm2 := a.footAt(0.5*(tp+tj)), a.footAt(0.5*(tj+t1))
 	lo1, hi1 := a.devRange(&fp, &fm1, &fj, dev, devJ, &g1)
 	_, jt := arcTo(p, tg, j)
-	g2 := a.newArcGeom(j, jt, a2, q)
+	a.newArcGeom(&g2, j, jt, a2, q)
 	lo2, hi2 := a.devRange(&fj, &fm2, &f1, devJ, dev1, &g2)
 	m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo)
 	return min(lo1, lo2) >= m-w && max(hi1, hi2) <= m+w
