@@ -930,32 +930,13 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	if remaining <= 0 {
 		return Segment{}, false
 	}
-	// First guess: the steady pattern's span for the curvature change at
-	// the middle of the step, times what that prediction missed by on
-	// the last step.
-	pred := a.patternStep(s.tp + a.sigma*0.5*a.patternStepAt(&s.foot))
-	corr := s.corr
-	if corr == 0 {
-		corr = 1
-	}
-	dt := corr * pred
-	if s.lastDt > 0 {
-		dt = min(dt, 4*s.lastDt)
-	} else if a.nEst > 0 {
-		// The first step, often from a vertex where κ′ vanishes and the
-		// guess runs far: no more than twice the average step of N*.
-		dt = min(dt, 2*a.span/a.nEst)
-	}
-	dt = min(dt, math.Pi)
+	// First guess (see guess).
+	pred, dt, typical := s.guess(a)
 	// Near the end, close with one biarc when it fits; when little is
 	// left, with the fewest biarcs that fit. Unequal legs give the join
 	// a second chance where the equal-leg biarc leaves the zone. What is
 	// "little" goes by the steps actually taken: the first guess runs
 	// far ahead where κ′ vanishes, at the vertices.
-	typical := dt
-	if s.lastDt > 0 {
-		typical = min(dt, 1.5*s.lastDt)
-	}
 	if remaining <= 3*typical {
 		for n := 1; n <= 4; n++ {
 			if n > 1 && remaining > 0.8*typical {
@@ -1024,6 +1005,32 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 		}
 	}
 	return s.commit(&best, bestDt, pred), true
+}
+
+// guess returns the first guess of the next step: the steady pattern's
+// span pred for the curvature change at the middle of the step, the span
+// dt to try first (pred times what the prediction missed by on the last
+// step) and the typical step by the steps actually taken.
+func (s *arcState) guess(a *Approximator) (pred, dt, typical float64) {
+	pred = a.patternStep(s.tp + a.sigma*0.5*a.patternStepAt(&s.foot))
+	corr := s.corr
+	if corr == 0 {
+		corr = 1
+	}
+	dt = corr * pred
+	if s.lastDt > 0 {
+		dt = min(dt, 4*s.lastDt)
+	} else if a.nEst > 0 {
+		// The first step, often from a vertex where κ′ vanishes and the
+		// guess runs far: no more than twice the average step of N*.
+		dt = min(dt, 2*a.span/a.nEst)
+	}
+	dt = min(dt, math.Pi)
+	typical = dt
+	if s.lastDt > 0 {
+		typical = min(dt, 1.5*s.lastDt)
+	}
+	return pred, dt, typical
 }
 
 // falling reports whether the curvature falls ahead of the current
@@ -1215,13 +1222,9 @@ func (s *arcState) endgame(a *Approximator, remaining, pred float64) (Segment, b
 // of span dt1.
 func (s *arcState) secondStep(a *Approximator, tr trial, dt1, pred, remaining float64) float64 {
 	s2 := *s
-	s2.p, s2.tan, s2.tp, s2.dev, s2.foot = tr.q, tr.end, tr.t1, tr.dev1, tr.foot
-	s2.haveSlope = false
+	s2.commit(&tr, dt1, pred)
 	rem := remaining - dt1
-	pred2 := a.patternStep(s2.tp + a.sigma*0.5*a.patternStepAt(&s2.foot))
-	corr := max(0.25, min(4, dt1/pred))
-	d := min(corr*pred2, 4*dt1, math.Pi)
-	typical := min(d, 1.5*dt1)
+	_, d, typical := s2.guess(a)
 	if rem <= 3*typical {
 		return min(rem, typical)
 	}
