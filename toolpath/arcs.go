@@ -35,8 +35,8 @@ import (
 // measures, because there each arc spans a several-fold change of
 // curvature and the greedy chain loses up to half the zone:
 //
-//   - Look-ahead: each step also tries the ends at the deviations in
-//     lookDevs and keeps the one whose step, followed by the next step by
+//   - Look-ahead: each step also tries ends at five fixed deviations
+//     and keeps the one whose step, followed by the next step by
 //     the deadbeat rule, reaches farthest.
 //   - Backward planning: where the curvature falls ahead (from an end of
 //     the major axis to the next end of the minor axis), greedy arcs
@@ -77,10 +77,6 @@ const (
 	lookCurvatureRatio = 20
 	planMax            = 64 // segments of a stretch planned backwards
 )
-
-// lookDevs are the end deviations, in fractions of 0.8 of the half-width
-// off the middle, that the look-ahead tries besides the deadbeat rule's.
-var lookDevs = [...]float64{-1, -0.5, 0, 0.5, 1}
 
 // arcState holds the arc approximator's state between segments: O(1).
 type arcState struct {
@@ -947,8 +943,7 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 					break // unequal legs only for the last chances
 				}
 				if s.leg = leg; s.closeFits(a, n) {
-					s.closing, s.n, s.i, s.half = true, n, 0, false
-					s.t0End = s.tp
+					s.startClosing(n, leg)
 					return s.nextClosing(a)
 				}
 			}
@@ -966,7 +961,9 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	if bestDt > 0 && a.look {
 		score := bestDt + s.secondStep(a, best, bestDt, pred, remaining)
 		m, w := a.mid(), 0.8*(a.hi-a.mid())
-		for _, x := range lookDevs {
+		// End deviations, in fractions of 0.8 of the half-width off the
+		// middle, tried besides the deadbeat rule's.
+		for _, x := range [...]float64{-1, -0.5, 0, 0.5, 1} {
 			tr, d, _, _ := s.search(a, bestDt, maxDt, m+x*w, true)
 			if d == 0 {
 				continue
@@ -1007,6 +1004,15 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	return s.commit(&best, bestDt, pred), true
 }
 
+// majorEnd returns the parameter of an end of the major axis, 0 or π/2
+// (the other is π later).
+func (f *frame) majorEnd() float64 {
+	if f.rx < f.ry {
+		return math.Pi / 2
+	}
+	return 0
+}
+
 // guess returns the first guess of the next step: the steady pattern's
 // span pred for the curvature change at the middle of the step, the span
 // dt to try first (pred times what the prediction missed by on the last
@@ -1037,11 +1043,7 @@ func (s *arcState) guess(a *Approximator) (pred, dt, typical float64) {
 // point: between the end of a major axis and the next end of the minor
 // axis, in the direction of travel.
 func (s *arcState) falling(a *Approximator) bool {
-	c := 0.0 // an end of the major axis
-	if a.f.rx < a.f.ry {
-		c = math.Pi / 2
-	}
-	u := math.Mod(a.sigma*(s.tp-c), math.Pi)
+	u := math.Mod(a.sigma*(s.tp-a.f.majorEnd()), math.Pi)
 	if u < 0 {
 		u += math.Pi
 	}
@@ -1061,10 +1063,7 @@ func (s *arcState) falling(a *Approximator) bool {
 // else the chain goes on forward.
 func (s *arcState) planExit(a *Approximator) bool {
 	f := &a.f
-	base := 0.0
-	if f.rx >= f.ry {
-		base = math.Pi / 2
-	}
+	base := f.majorEnd() + math.Pi/2 // an end of the minor axis
 	var tT float64
 	if a.sigma > 0 {
 		tT = base + math.Pi*(math.Floor((s.tp-base)/math.Pi)+1)
@@ -1175,6 +1174,13 @@ func (s *arcState) nextPlanned(a *Approximator) Segment {
 	return seg
 }
 
+// startClosing makes the rest of the path n closing biarcs with first leg
+// ratio leg, from the current state.
+func (s *arcState) startClosing(n int, leg float64) {
+	s.closing, s.n, s.i, s.half, s.leg = true, n, 0, false, leg
+	s.t0End = s.tp
+}
+
 // commit moves the state to the end of the trial tr of span dt and
 // returns its segment; pred is the span the first guess predicted.
 func (s *arcState) commit(tr *trial, dt, pred float64) Segment {
@@ -1208,8 +1214,7 @@ func (s *arcState) endgame(a *Approximator, remaining, pred float64) (Segment, b
 			for _, leg := range [...]float64{1, 0.6, 1.6} {
 				if s2.leg = leg; s2.closeFits(a, 1) {
 					seg := s.commit(&tr, fr*remaining, pred)
-					s.closing, s.n, s.i, s.half, s.leg = true, 1, 0, false, leg
-					s.t0End = s.tp
+					s.startClosing(1, leg)
 					return seg, true
 				}
 			}
