@@ -150,26 +150,29 @@ func TestSegmentDeviationSpecialCases(t *testing.T) {
 
 // denseDeviation is the slow route: the exact distance at m+1 evenly spaced
 // points, then golden-section search around the best sample of each kind.
+// A segment that crosses the line of the major axis inside the curve may
+// dip across a needle's sharp end between two samples (the distance has its
+// kink there, on the medial axis), so each such crossing is found by
+// bisection, measured, and searched on either side as well.
 func denseDeviation(c ellipse.Parallel, s toolpath.Segment, m int) (lo, hi float64) {
 	e := c.Ellipse()
 	f := func(u float64) float64 {
 		x, y := precisePoint(s, u)
 		return e.SignedDistance(ellipse.Point{X: x, Y: y}) - c.Offset()
 	}
-	lo, hi = math.Inf(1), math.Inf(-1)
-	iLo, iHi := 0, 0
-	for i := 0; i <= m; i++ {
-		v := f(float64(i) / float64(m))
-		if v < lo {
-			lo, iLo = v, i
+	// across returns the coordinate of the point at u across the major
+	// axis, in the ellipse's own frame.
+	sn, cs := math.Sincos(e.Rotation())
+	across := func(u float64) float64 {
+		x, y := precisePoint(s, u)
+		dx, dy := x-e.Center().X, y-e.Center().Y
+		if e.SemiX() >= e.SemiY() {
+			return -sn*dx + cs*dy
 		}
-		if v > hi {
-			hi, iHi = v, i
-		}
+		return cs*dx + sn*dy
 	}
-	golden := func(i int, sgn float64) float64 {
-		a, b := math.Max(0, float64(i-1)/float64(m)), math.Min(1, float64(i+1)/float64(m))
-		const g = 0.6180339887498949
+	const g = 0.6180339887498949
+	golden := func(a, b, sgn float64) float64 {
 		best := math.Inf(-1)
 		x1, x2 := b-g*(b-a), a+g*(b-a)
 		f1, f2 := sgn*f(x1), sgn*f(x2)
@@ -187,16 +190,52 @@ func denseDeviation(c ellipse.Parallel, s toolpath.Segment, m int) (lo, hi float
 		}
 		return sgn * best
 	}
-	hi = math.Max(hi, golden(iHi, 1))
-	lo = math.Min(lo, golden(iLo, -1))
+	lo, hi = math.Inf(1), math.Inf(-1)
+	iLo, iHi := 0, 0
+	prev := across(0)
+	for i := 0; i <= m; i++ {
+		u := float64(i) / float64(m)
+		v := f(u)
+		if v < lo {
+			lo, iLo = v, i
+		}
+		if v > hi {
+			hi, iHi = v, i
+		}
+		if i == 0 {
+			continue
+		}
+		w := across(u)
+		if (prev < 0) != (w < 0) {
+			// bisect the crossing, then search either side of it
+			a, b, fa := float64(i-1)/float64(m), u, prev
+			for k := 0; k < 80 && b-a > 0; k++ {
+				mid := (a + b) / 2
+				if mid == a || mid == b {
+					break
+				}
+				if fm := across(mid); (fm < 0) == (fa < 0) {
+					a, fa = mid, fm
+				} else {
+					b = mid
+				}
+			}
+			lo = math.Min(lo, math.Min(f(a), f(b)))
+			lo = math.Min(lo, golden(float64(i-1)/float64(m), a, -1))
+			lo = math.Min(lo, golden(b, u, -1))
+		}
+		prev = w
+	}
+	around := func(i int) (float64, float64) {
+		return math.Max(0, float64(i-1)/float64(m)), math.Min(1, float64(i+1)/float64(m))
+	}
+	a, b := around(iHi)
+	hi = math.Max(hi, golden(a, b, 1))
+	a, b = around(iLo)
+	lo = math.Min(lo, golden(a, b, -1))
 	return lo, hi
 }
 
-// precisePoint is toolpath.Segment.At in XY with the digits of flat arcs
-// kept: the arc point is Start turned about the centre by u·Sweep through a
-// rotation matrix applied to Start − centre, added to Start (At adds a
-// radius of up to 1e4 semi-major axes to a far centre and loses those
-// digits).
 func precisePoint(s toolpath.Segment, u float64) (x, y float64) {
 	if s.Kind != toolpath.Arc {
 		p := s.At(u)
