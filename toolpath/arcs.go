@@ -1551,4 +1551,3 @@ func (s *arcState) nextClosing(a *Approximator) (Segment, bool) {
 	return first, true
 }
 
-var zzTries1, zzTries2 = 4, 3
