@@ -1251,6 +1251,13 @@ func (s *arcState) search(a *Approximator, dt, maxDt, e1 float64, fixed bool) (b
 	r0 := max((s.dev-m)/(a.hi-m), (m-s.dev)/(m-a.lo))
 	lo, rlo := 0.0, r0
 	hi, rhi := math.Inf(1), math.Inf(1)
+	// After a trial outside the accepted window, the step model (see
+	// stepModel), scaled by what the trial measured against it, proposes
+	// the next span; the first guess stays the caller's, which keeps the
+	// chain on its rhythm (the model's own first guesses cost arcs).
+	var md stepModel
+	var v float64
+	haveModel, useModel := false, false
 	var tr trial
 	for i := 0; i < arcMaxSteps; i++ {
 		dt = min(dt, maxDt)
@@ -1279,7 +1286,20 @@ func (s *arcState) search(a *Approximator, dt, maxDt, e1 float64, fixed bool) (b
 			}
 		}
 		var next float64
+		modelNext := false
+		if !haveModel {
+			md, v, useModel = s.model(a, dt, e1, fixed)
+			haveModel = true
+		}
+		if useModel && r > 0 && !math.IsInf(r, 0) {
+			if rm := md.ratio(dt * v); rm > 0 {
+				if l, ok := md.span(arcTarget*rm/r, dt*v); ok && l/v > lo && l/v < hi {
+					next, modelNext = l/v, true
+				}
+			}
+		}
 		switch {
+		case modelNext:
 		case math.IsInf(hi, 1):
 			next = 2 * lo
 			if rlo > r0 {
@@ -1299,6 +1319,28 @@ func (s *arcState) search(a *Approximator, dt, maxDt, e1 float64, fixed bool) (b
 		dt = next
 	}
 	return best, bestDt, hi, dt
+}
+
+// model returns the step model from the current state for a step of
+// about dt (end deviation e1 when fixed, else the deadbeat rule's), the
+// speed of the middle of the zone that turns its lengths into spans, and
+// whether it applies: not where the normals fan out across the zone
+// (see endDeviation).
+func (s *arcState) model(a *Approximator, dt, e1 float64, fixed bool) (md stepModel, v float64, ok bool) {
+	f := &a.f
+	m := a.mid()
+	edge := max(math.Abs(a.lo), math.Abs(a.hi))
+	if (a.hi-a.lo+edge)*s.foot.k > 0.05 || !(dt > 0) {
+		return md, 0, false
+	}
+	sn, cn := math.Sincos(s.tp + a.sigma*0.5*dt)
+	v2, v, _, kp := f.footBase(sn, cn)
+	v += (f.d + m) * f.rx * f.ry / v2
+	md = stepModel{u0: s.dev - m, v0: s.slope(a), c: a.sigma * kp, w: a.hi - m, lim: 0.8}
+	if fixed {
+		md.fixed, md.u1 = true, e1-m
+	}
+	return md, v, true
 }
 
 // tryStep is try with the end deviation e1 when fixed.
@@ -1550,4 +1592,3 @@ func (s *arcState) nextClosing(a *Approximator) (Segment, bool) {
 	s.foot, s.haveSlope = a.footAt(t1), false
 	return first, true
 }
-

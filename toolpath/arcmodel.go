@@ -1,0 +1,105 @@
+package toolpath
+
+import "math"
+
+// stepModel is the first-order model of one step of the arc chain, used
+// to guess the step's length before measuring it (see arcState.search).
+//
+// Along the intended curve, by arc length s from the current point, the
+// deviation δ of an arc of curvature k obeys δ″ = κ − k to first order in
+// δ (see endDeviation). With the curve's κ changing at a steady κ′ = c,
+// the start's deviation u₀ and slope v₀ (both off the middle of the zone)
+// and the end deviation u₁ the deadbeat rule picks for the length L,
+//
+//	δ(s) = u₀ + v₀·s + A·s²/2 + c·s³/6,   A = 2(u₁ − u₀ − v₀L − cL³/6)/L²,
+//
+// a cubic whose extremes on [0, L] are at its ends or at the roots of
+// δ′(s) = v₀ + A·s + c·s²/2. The use of the zone is the larger of
+// max δ and −min δ over the half-width w.
+type stepModel struct {
+	u0, v0, c, w float64
+	lim          float64 // the largest end deviation, in units of w
+	fixed        bool    // the end deviation is u1, not the deadbeat rule's
+	u1           float64
+}
+
+// ratio returns the model's use of the zone by a step of length l.
+func (m *stepModel) ratio(l float64) float64 {
+	u1 := m.u1
+	if !m.fixed {
+		g := m.c * l * l / 12
+		u1 = 0.8 * (m.u0/2 + l*(m.v0-g)/4)
+		lim := m.lim * m.w
+		u1 = max(-lim, min(lim, u1))
+	}
+	a := 2 * (u1 - m.u0 - m.v0*l - m.c*l*l*l/6) / (l * l)
+	hi, lo := max(m.u0, u1), min(m.u0, u1)
+	// the roots of δ′ = v₀ + a·s + (c/2)·s², stably
+	qa, qb, qc := m.c/2, a, m.v0
+	r1, r2 := math.NaN(), math.NaN()
+	if qa == 0 {
+		if qb != 0 {
+			r1 = -qc / qb
+		}
+	} else if disc := qb*qb - 4*qa*qc; disc >= 0 {
+		q := -0.5 * (qb + math.Copysign(math.Sqrt(disc), qb))
+		if q != 0 {
+			r1, r2 = q/qa, qc/q
+		}
+	}
+	if r1 > 0 && r1 < l {
+		d := m.u0 + r1*(m.v0+r1*(a/2+r1*m.c/6))
+		hi, lo = max(hi, d), min(lo, d)
+	}
+	if r2 > 0 && r2 < l {
+		d := m.u0 + r2*(m.v0+r2*(a/2+r2*m.c/6))
+		hi, lo = max(hi, d), min(lo, d)
+	}
+	return max(hi, -lo) / m.w
+}
+
+// span returns a length near l0 at which the model's use of the zone
+// crosses target, within 1%: bracketed by steps of 1.3 out from l0,
+// then narrowed by regula falsi (the Illinois variant). ok is false
+// where no crossing lies within a factor of 1.3⁸ ≈ 8 of l0.
+func (m *stepModel) span(target, l0 float64) (l float64, ok bool) {
+	if !(l0 > 0) {
+		return 0, false
+	}
+	f0 := m.ratio(l0) - target
+	if f0 == 0 {
+		return l0, true
+	}
+	// Longer steps use more of the zone: step towards the crossing.
+	k := 1.3
+	if f0 > 0 {
+		k = 1 / 1.3
+	}
+	a, fa := l0, f0
+	b, fb := l0, f0
+	for i := 0; ; i++ {
+		if i == 8 {
+			return 0, false
+		}
+		b = a * k
+		fb = m.ratio(b) - target
+		if (fb > 0) != (fa > 0) {
+			break
+		}
+		a, fa = b, fb
+	}
+	for i := 0; i < 8 && math.Abs(b-a) > 0.01*b; i++ {
+		c := b - fb*(b-a)/(fb-fa)
+		fc := m.ratio(c) - target
+		if fc == 0 {
+			return c, true
+		}
+		if (fc > 0) != (fb > 0) {
+			a, fa = b, fb
+		} else {
+			fa /= 2 // Illinois: the end kept twice counts half
+		}
+		b, fb = c, fc
+	}
+	return b, true
+}
