@@ -1464,16 +1464,23 @@ func (a *Approximator) biarcFits(p, tg vec, tp, dev float64, q, tq vec, t1, dev1
 		return false
 	}
 	devJ := a.f.e.SignedDistance(ptOf(j)) - a.f.d
+	m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo)
+	// The join, then each arc in turn: the first outside the zone decides.
+	if !(devJ >= m-w && devJ <= m+w) {
+		return false
+	}
 	var g1, g2 arcGeom
 	a.newArcGeom(&g1, p, tg, a1, j)
-	fp, fj, f1 := a.footAt(tp), a.footAt(tj), a.footAt(t1)
-	fm1, fm2 := a.footAt(0.5*(tp+tj)), a.footAt(0.5*(tj+t1))
-	lo1, hi1 := a.devRange(&fp, &fm1, &fj, dev, devJ, &g1)
+	fp, fj := a.footAt(tp), a.footAt(tj)
+	fm1 := a.footAt(0.5 * (tp + tj))
+	if lo, hi := a.devRange(&fp, &fm1, &fj, dev, devJ, &g1); !(lo >= m-w && hi <= m+w) {
+		return false
+	}
+	f1, fm2 := a.footAt(t1), a.footAt(0.5*(tj+t1))
 	_, jt := arcTo(p, tg, j)
 	a.newArcGeom(&g2, j, jt, a2, q)
-	lo2, hi2 := a.devRange(&fj, &fm2, &f1, devJ, dev1, &g2)
-	m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo)
-	return min(lo1, lo2) >= m-w && max(hi1, hi2) <= m+w
+	lo, hi := a.devRange(&fj, &fm2, &f1, devJ, dev1, &g2)
+	return lo >= m-w && hi <= m+w
 }
 
 // closeFits reports whether n interpolating biarcs from the current state
