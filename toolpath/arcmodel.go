@@ -59,47 +59,60 @@ func (m *stepModel) ratio(l float64) float64 {
 }
 
 // span returns a length near l0 at which the model's use of the zone
-// crosses target, within 1%: bracketed by steps of 1.3 out from l0,
-// then narrowed by regula falsi (the Illinois variant). ok is false
-// where no crossing lies within a factor of 1.3⁸ ≈ 8 of l0.
-func (m *stepModel) span(target, l0 float64) (l float64, ok bool) {
+// crosses target, within about 1%, given r0, the use at l0. The first
+// guess takes the use to grow from the start's own |u₀|/w as l³; the
+// crossing is then bracketed by steps of 1.3 and narrowed by regula falsi
+// on l³ (the Illinois variant), in which the use grows about linearly.
+// ok is false where no crossing lies within a factor of about 8 of l0.
+func (m *stepModel) span(target, l0, r0 float64) (l float64, ok bool) {
 	if !(l0 > 0) {
 		return 0, false
 	}
-	f0 := m.ratio(l0) - target
-	if f0 == 0 {
+	a, fa := l0, r0-target
+	if fa == 0 {
 		return l0, true
 	}
-	// Longer steps use more of the zone: step towards the crossing.
-	k := 1.3
-	if f0 > 0 {
+	// the guess, within a factor of two of l0
+	base := math.Abs(m.u0) / m.w
+	k := 2.0
+	if fa > 0 {
+		k = 0.5
+	}
+	if g := (target - base) / (r0 - base); g > 0 && !math.IsInf(g, 0) {
+		k = max(0.5, min(2, math.Cbrt(g)))
+	}
+	b := a * k
+	fb := m.ratio(b) - target
+	// Longer steps use more of the zone: step on towards the crossing.
+	k = 1.3
+	if fb > 0 {
 		k = 1 / 1.3
 	}
-	a, fa := l0, f0
-	b, fb := l0, f0
-	for i := 0; ; i++ {
+	for i := 0; (fb > 0) == (fa > 0); i++ {
 		if i == 8 {
 			return 0, false
 		}
+		a, fa = b, fb
 		b = a * k
 		fb = m.ratio(b) - target
-		if (fb > 0) != (fa > 0) {
-			break
-		}
-		a, fa = b, fb
 	}
-	for i := 0; i < 8 && math.Abs(b-a) > 0.01*b; i++ {
-		c := b - fb*(b-a)/(fb-fa)
+	a3, b3 := a*a*a, b*b*b
+	for i := 0; i < 6; i++ {
+		c3 := b3 - fb*(b3-a3)/(fb-fa)
+		c := math.Cbrt(c3)
+		if math.Abs(c-b) <= 0.003*b {
+			return c, true
+		}
 		fc := m.ratio(c) - target
 		if fc == 0 {
 			return c, true
 		}
 		if (fc > 0) != (fb > 0) {
-			a, fa = b, fb
+			a3, fa = b3, fb
 		} else {
 			fa /= 2 // Illinois: the end kept twice counts half
 		}
-		b, fb = c, fc
+		b, b3, fb = c, c3, fc
 	}
 	return b, true
 }

@@ -59,7 +59,7 @@ func TestStepModelSpanCrossesTheTarget(t *testing.T) {
 		m := drawStepModel(t)
 		target := rapid.Float64Range(0.3, 1.5).Draw(t, "target")
 		l0 := math.Pow(10, rapid.Float64Range(-2, 2).Draw(t, "log l0"))
-		l, ok := m.span(target, l0)
+		l, ok := m.span(target, l0, m.ratio(l0))
 		if !ok {
 			return
 		}
@@ -92,7 +92,7 @@ func TestStepModelCases(t *testing.T) {
 		{"reaches it", stepModel{w: 1, lim: 0.8, c: 1e-3}, 10, true},
 	}
 	for _, tt := range tests {
-		if _, ok := tt.m.span(0.9, tt.l0); ok != tt.ok {
+		if _, ok := tt.m.span(0.9, tt.l0, tt.m.ratio(tt.l0)); ok != tt.ok {
 			t.Errorf("%s: ok %v, want %v", tt.name, ok, tt.ok)
 		}
 	}

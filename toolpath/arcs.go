@@ -299,13 +299,35 @@ func (f *frame) circleDevSC(s, c float64, g *arcGeom) float64 {
 type foot struct {
 	t, k, nu, vEdge, vMid float64
 	v, kp                 float64 // speed and dκ/ds of the intended curve
+	sn, cs                float64 // sin t and cos t
 }
 
 // footAt returns the foot at t.
 func (a *Approximator) footAt(t float64) foot {
+	sn, cs := math.Sincos(t)
+	return a.footAtSC(t, sn, cs)
+}
+
+// stepFeet returns the feet at t1 and halfway to it from the current
+// point's foot x, from one Sincos: the sine and cosine of the half step
+// turn x's into the middle's and the middle's into the end's.
+func (a *Approximator) stepFeet(x *foot, t1 float64) (f1, fm foot) {
+	tm := 0.5 * (x.t + t1)
+	sh, ch := math.Sincos(t1 - tm)
+	sm, cm := x.sn*ch+x.cs*sh, x.cs*ch-x.sn*sh
+	s1, c1 := sm*ch+cm*sh, cm*ch-sm*sh
+	return a.footAtSC(t1, s1, c1), a.footAtSC(tm, sm, cm)
+}
+
+// footAtSC is footAt given sin t and cos t.
+func (a *Approximator) footAtSC(t, sn, cs float64) foot {
 	f := &a.f
 	n := math.Round(t / math.Pi)
-	s, c := math.Sincos(t - n*math.Pi)
+	// sin and cos of t − nπ, which keeps the normal angle continuous
+	s, c := sn, cs
+	if int64(n)&1 != 0 {
+		s, c = -s, -c
+	}
 	v2, v, ke, kp := f.footBase(s, c)
 	edge := max(math.Abs(a.lo), math.Abs(a.hi))
 	return foot{
@@ -316,6 +338,8 @@ func (a *Approximator) footAt(t float64) foot {
 		vMid:  v + (f.d+a.mid())*f.rx*f.ry/v2,
 		v:     v + f.d*f.rx*f.ry/v2,
 		kp:    kp,
+		sn:    sn,
+		cs:    cs,
 	}
 }
 
@@ -834,7 +858,7 @@ type trial struct {
 // try builds and measures the step to foot parameter t1.
 func (a *Approximator) try(s *arcState, t1 float64, tr *trial) {
 	// End deviation by the deadbeat rule (see endDeviation).
-	f1, fm := a.footAt(t1), a.footAt(0.5*(s.tp+t1))
+	f1, fm := a.stepFeet(&s.foot, t1)
 	a.tryEnd(s, &fm, &f1, a.endDeviation(s, &fm, &f1), tr)
 }
 
@@ -857,7 +881,7 @@ func (a *Approximator) tryEnd(s *arcState, fm, f1 *foot, e1 float64, tr *trial) 
 	f := &a.f
 	t1 := f1.t
 	m := a.mid()
-	q, _, n := f.at(t1, f.d+e1)
+	q, _, n := f.atSC(f1.sn, f1.cs, f.d+e1)
 	k, end := arcTo(s.p, s.tan, q)
 	tr.k, tr.end, tr.q, tr.dev1, tr.t1 = k, end, q, e1, t1
 	chord := q.sub(s.p).norm()
@@ -1188,6 +1212,9 @@ func (s *arcState) commit(tr *trial, dt, pred float64) Segment {
 	s.lastDt = dt
 	s.corr = max(0.25, min(4, dt/pred))
 	s.p, s.tan, s.tp, s.dev, s.foot = tr.q, tr.end, tr.t1, tr.dev1, tr.foot
+	// afresh, so that the feet's turning by rotation (stepFeet) does not
+	// drift over many steps
+	s.foot.sn, s.foot.cs = math.Sincos(tr.t1)
 	s.haveSlope = false
 	return seg
 }
@@ -1293,7 +1320,7 @@ func (s *arcState) search(a *Approximator, dt, maxDt, e1 float64, fixed bool) (b
 		}
 		if useModel && r > 0 && !math.IsInf(r, 0) {
 			if rm := md.ratio(dt * v); rm > 0 {
-				if l, ok := md.span(arcTarget*rm/r, dt*v); ok && l/v > lo && l/v < hi {
+				if l, ok := md.span(arcTarget*rm/r, dt*v, rm); ok && l/v > lo && l/v < hi {
 					next, modelNext = l/v, true
 				}
 			}
@@ -1349,7 +1376,7 @@ func (s *arcState) tryStep(a *Approximator, t1, e1 float64, fixed bool, tr *tria
 		a.try(s, t1, tr)
 		return
 	}
-	f1, fm := a.footAt(t1), a.footAt(0.5*(s.tp+t1))
+	f1, fm := a.stepFeet(&s.foot, t1)
 	a.tryEnd(s, &fm, &f1, e1, tr)
 }
 

@@ -41,6 +41,11 @@ func (a vec) addScaled(b vec, k float64) vec { return vec{a.x + k*b.x, a.y + k*b
 // the unit outward normal.
 func (f *frame) at(t, off float64) (p, tan, nrm vec) {
 	s, c := math.Sincos(t)
+	return f.atSC(s, c, off)
+}
+
+// atSC is at given sin t and cos t.
+func (f *frame) atSC(s, c, off float64) (p, tan, nrm vec) {
 	lx, ly := f.rx*c, f.ry*s
 	tx, ty := -f.rx*s, f.ry*c
 	h := math.Sqrt(tx*tx + ty*ty) // semi-axes are at most 1e100
