@@ -76,6 +76,9 @@ const (
 	lookSegments       = 60
 	lookCurvatureRatio = 20
 	planMax            = 64 // segments of a stretch planned backwards
+	// The endgame skips steps whose model (see stepModel) uses more than
+	// this share of the zone.
+	endgameModelMax = 1.3
 )
 
 // arcState holds the arc approximator's state between segments: O(1).
@@ -1225,7 +1228,15 @@ func (s *arcState) endgame(a *Approximator, remaining, pred float64) (Segment, b
 	m, w := a.mid(), 0.4*(a.hi-a.mid())
 	for _, fr := range [...]float64{0.7, 0.5, 0.35} {
 		t1 := s.tp + a.sigma*fr*remaining
+		md, v, useModel := s.model(a, fr*remaining, 0, false)
 		for i := 0; i < 4; i++ {
+			// A step the model puts well outside the zone is not tried.
+			if useModel {
+				md.fixed, md.u1 = i > 0, float64(i-2)*w
+				if md.ratio(fr*remaining*v) > endgameModelMax {
+					continue
+				}
+			}
 			var tr trial
 			switch i {
 			case 0:
