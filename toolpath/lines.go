@@ -63,6 +63,11 @@ func (a *Approximator) nextLine() (Segment, bool) {
 	// leaves it (the sag is far from quadratic where a flat stretch meets
 	// a tight tip).
 	best, bad := 0.0, math.Inf(1)
+	// widths of the bracket over the last two steps: where the model's
+	// steps stop halving it (the sag grows far faster than the square
+	// where a chord runs from a flat stretch into a tight tip, and the
+	// model then jumps from one end to the other), the step bisects.
+	w1, w2 := math.Inf(1), math.Inf(1)
 	for i := 0; i < 16; i++ {
 		r := f.sag(t0, t0+a.sigma*dt, off) / h
 		if r <= 1 {
@@ -75,10 +80,16 @@ func (a *Approximator) nextLine() (Segment, bool) {
 		}
 		next := dt * math.Sqrt(lineTarget/math.Max(r, 1e-12))
 		next = math.Min(next, math.Min(remaining, math.Pi/2))
-		if !(next > best && next < bad) {
-			if math.IsInf(bad, 1) {
+		w := bad - best
+		stalled := !math.IsInf(w, 1) && w > 0.5*w2
+		w2, w1 = w1, w
+		if !(next > best && next < bad) || stalled {
+			switch {
+			case math.IsInf(bad, 1):
 				next = math.Min(2*dt, math.Min(remaining, math.Pi/2))
-			} else {
+			case best > 0 && bad > 4*best:
+				next = math.Sqrt(best * bad) // the sag grows as a power
+			default:
 				next = 0.5 * (best + bad)
 			}
 		}
