@@ -370,7 +370,10 @@ func (f *frame) footBase(s, c float64) (v2, v, ke, kp float64) {
 // about |κ − k|·h²/8; h keeps it below a quarter of the half-width, so
 // the samples find the neighbourhood of every extreme, and polish then
 // refines each extreme with new evaluations until successive parabolas
-// agree within devMiss/4 of the half-width. Where the zone is wide beside
+// agree within devMiss/4 of the half-width (first halving the bracket
+// about the best sample, where the first parabola's vertex falls on it
+// and |κ′|·h³/24 exceeds eight times devMiss of the half-width: there
+// the check at the vertex would only repeat the sample). Where the zone is wide beside
 // the radius of curvature (above 5%) the normals fan out across it and λ
 // is not smooth enough to polish; there h also keeps the one-parabola miss
 // |κ′|·h³/24 below devMiss of the half-width. Uniform steps in the parameter
@@ -476,6 +479,15 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 		}
 	}
 	if polish {
+		// Halvings of the bracket before polishing (see polish), while
+		// the one-parabola miss |κ′|·h³/24 of the spacing h exceeds
+		// eight times devMiss of the half-width.
+		halve := 0
+		if dk > 0 {
+			for hc := 2 * math.Cbrt(24*miss/dk); h > hc && halve < 6; h /= 2 {
+				halve++
+			}
+		}
 		// No sample misses its neighbourhood's extreme by more than a
 		// quarter of the half-width (the spacing h above; half of it is
 		// allowed here, for merged grids that space unevenly), so only
@@ -483,16 +495,16 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 		// other one too only if that bound could overtake it.
 		mid, miss4 := a.mid(), 0.5*(a.hi-a.lo)/2
 		if v[jmax]-mid >= mid-v[jmin] {
-			hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.5*miss))
+			hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.5*miss, halve))
 			if mid-(v[jmin]-miss4) > hi-mid {
-				lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.5*miss))
+				lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.5*miss, halve))
 			} else {
 				lo = min(lo, v[jmin]-miss4)
 			}
 		} else {
-			lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.5*miss))
+			lo = min(lo, f.polish(g, ts[:m], v[:m], jmin, -1, 0.5*miss, halve))
 			if v[jmax]+miss4-mid > mid-lo {
-				hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.5*miss))
+				hi = max(hi, f.polish(g, ts[:m], v[:m], jmax, 1, 0.5*miss, halve))
 			} else {
 				hi = max(hi, v[jmax]+miss4)
 			}
@@ -545,7 +557,7 @@ func (a *Approximator) pointRange(g *arcGeom) (lo, hi float64) {
 // parabola refitted around the better point, until the prediction and the
 // evaluation agree within tol (each round shrinks the miss of a smooth
 // extreme by about the cube of the bracket's shrinking).
-func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64) float64 {
+func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64, halve int) float64 {
 	m := len(v)
 	if m < 3 {
 		return v[j]
@@ -589,6 +601,33 @@ func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64) flo
 	default:
 		x0, x1, x2 = x[j-1], x[j], x[j+1]
 		y0, y1, y2 = v[j-1], v[j], v[j+1]
+	}
+	// Where the curvature changes fast beside the sample spacing, a
+	// parabola through the best sample and its neighbours can put its
+	// vertex on the sample while the extreme lies between it and a
+	// neighbour, and the check at the vertex then only repeats the
+	// sample: there the bracket is halved first, about the best of the
+	// sample and the two midpoints.
+	if halve > 0 {
+		xv, _, ok := parabolaVertex(x0, x1, x2, y0, y1, y2)
+		if ok && math.Abs(xv-x1) >= 0.25*min(math.Abs(x1-x0), math.Abs(x2-x1)) {
+			halve = 0 // the vertex is away from the samples: its check is real
+		}
+	}
+	for ; halve > 0; halve-- {
+		xa, xb := 0.5*(x0+x1), 0.5*(x1+x2)
+		ya, yb := f.devAt(xa, g), f.devAt(xb, g)
+		if math.IsNaN(ya) || math.IsNaN(yb) {
+			return sign * math.Inf(1)
+		}
+		switch {
+		case sign*ya > sign*y1 && sign*ya >= sign*yb:
+			x1, x2, y1, y2 = xa, x1, ya, y1
+		case sign*yb > sign*y1:
+			x0, x1, y0, y1 = x1, xb, y1, yb
+		default:
+			x0, x2, y0, y2 = xa, xb, ya, yb
+		}
 	}
 	best := y1
 	for it := 0; it < 5; it++ {
