@@ -27,10 +27,7 @@ type stepModel struct {
 func (m *stepModel) ratio(l float64) float64 {
 	u1 := m.u1
 	if !m.fixed {
-		g := m.c * l * l / 12
-		u1 = 0.8 * (m.u0/2 + l*(m.v0-g)/4)
-		lim := m.lim * m.w
-		u1 = max(-lim, min(lim, u1))
+		u1 = deadbeat(m.u0, m.v0-m.c*l*l/12, l, m.lim*m.w)
 	}
 	a := 2 * (u1 - m.u0 - m.v0*l - m.c*l*l*l/6) / (l * l)
 	hi, lo := max(m.u0, u1), min(m.u0, u1)

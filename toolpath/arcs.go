@@ -409,7 +409,7 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 	// Polishing the extremes needs them smooth and found; where the zone
 	// is wide against the radius of curvature the normals fan out across
 	// it and the deviation along them is not, so sample densely instead.
-	polish := (a.hi-a.lo+edge)*kmax < 0.05
+	polish := !a.fans(kmax)
 	g.fan = !polish
 	if dk > 0 && !polish {
 		h = math.Cbrt(24 * miss / dk)
@@ -1406,8 +1406,7 @@ func (s *arcState) search(a *Approximator, dt, maxDt, e1 float64, fixed bool) (b
 func (s *arcState) model(a *Approximator, dt, e1 float64, fixed bool) (md stepModel, v float64, ok bool) {
 	f := &a.f
 	m := a.mid()
-	edge := max(math.Abs(a.lo), math.Abs(a.hi))
-	if (a.hi-a.lo+edge)*s.foot.k > 0.05 || !(dt > 0) {
+	if a.fans(s.foot.k) || !(dt > 0) {
 		return md, 0, false
 	}
 	sn, cn := math.Sincos(s.tp + a.sigma*0.5*dt)
@@ -1495,16 +1494,28 @@ func (a *Approximator) patternSlope(f0, fm, f1 *foot) (g, l float64) {
 // case of every shape but the roundest).
 func (a *Approximator) endDeviation(s *arcState, fm, f1 *foot) float64 {
 	m := a.mid()
-	slope := s.slope(a)
 	g, l := a.patternSlope(&s.foot, fm, f1)
-	u1 := 0.8 * ((s.dev-m)/2 + l*(slope-g)/4)
-	lim := 0.8 * (a.hi - m)
-	if edge := max(math.Abs(a.lo), math.Abs(a.hi)); (a.hi-a.lo+edge)*max(s.foot.k, f1.k) > 0.05 {
+	lim := 0.8
+	if a.fans(max(s.foot.k, f1.k)) {
 		// Where the normals fan out the model means little, and an end
 		// near the edge round a needle's tip can leave no way on.
-		lim = 0.3 * (a.hi - m)
+		lim = 0.3
 	}
-	return m + max(-lim, min(lim, u1))
+	return m + deadbeat(s.dev-m, s.slope(a)-g, l, lim*(a.hi-m))
+}
+
+// deadbeat returns the end deviation (off the middle of the zone) of the
+// deadbeat rule for a step of length l from deviation u0 and slope v
+// off the pattern's, within ±lim (see endDeviation).
+func deadbeat(u0, v, l, lim float64) float64 {
+	return max(-lim, min(lim, 0.8*(u0/2+l*v/4)))
+}
+
+// fans reports whether the curve's normals fan out across the zone where
+// its curvature is k (above 5% of the radius: see devRange).
+func (a *Approximator) fans(k float64) bool {
+	edge := max(math.Abs(a.lo), math.Abs(a.hi))
+	return (a.hi-a.lo+edge)*k > 0.05
 }
 
 // rescue tries biarcs from the current state to the middle of the zone at
