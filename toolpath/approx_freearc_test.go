@@ -33,7 +33,8 @@ func freeBest(a *Approximator, t0, t1 float64) float64 {
 	m := a.mid()
 	hw := 0.5 * (a.hi - a.lo)
 	var buf [400]sample
-	n := f.mergedGrid(t0, t1, f.normalAngle(t0), f.normalAngle(t1), 90, buf[:0], true)
+	x0 := a.footAt(t0)
+	n := f.mergedGrid(&x0, t1, f.normalAngle(t1), 90, buf[:0], true)
 	ts := buf[:n]
 	tm := 0.5 * (t0 + t1)
 	obj := func(x [3]float64) float64 {

@@ -450,11 +450,11 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 	var m int
 	switch mode {
 	case gridT:
-		m = f.mergedGrid(t0, t1, nu0, nu1, n, grid[:0], false)
+		m = f.mergedGrid(f0, t1, nu1, n, grid[:0], false)
 	case gridNu:
-		m = f.normalGrid(nu0, nu1, n, grid[:0])
+		m = f.normalGrid(f0, nu1, n, grid[:0])
 	default:
-		m = f.mergedGrid(t0, t1, nu0, nu1, n/2, grid[:0], true)
+		m = f.mergedGrid(f0, t1, nu1, n/2, grid[:0], true)
 	}
 	g.nu = mode == gridNu
 	for j := 0; j < m; j++ {
@@ -722,22 +722,28 @@ const (
 	gridMerged        // both, merged in order of t
 )
 
-// normalGrid appends to dst ν0, n steps uniform in the normal angle and
-// ν1, with the sines and cosines of their feet (by rotation, recomputed
-// every reseed steps; not set at the ends), and returns the count.
-func (f *frame) normalGrid(nu0, nu1 float64, n int, dst []sample) int {
+// normalGrid appends to dst ν0 = ν(x.t), n steps uniform in the normal
+// angle and ν1, with the sines and cosines of their feet (by rotation,
+// from the normal at x and recomputed every reseed steps; not set at the
+// ends), and returns the count.
+func (f *frame) normalGrid(x *foot, nu1 float64, n int, dst []sample) int {
+	nu0 := x.nu
 	dst = append(dst, sample{t: nu0})
 	hn := (nu1 - nu0) / float64(n+1)
 	shN, chN := math.Sincos(hn)
-	var sn, cn float64
+	// cos ν0, sin ν0: the unit normal at x, along (ry·cos t, rx·sin t)
+	cn, sn := f.ry*x.cs, f.rx*x.sn
+	h0 := math.Hypot(cn, sn)
+	cn, sn = cn/h0, sn/h0
 	for j := 1; j <= n; j++ {
-		if (j-1)%reseed == 0 {
+		if (j-1)%reseed == 0 && j > 1 {
 			sn, cn = math.Sincos(nu0 + float64(j)*hn)
+		} else {
+			sn, cn = sn*chN+cn*shN, cn*chN-sn*shN
 		}
 		a, b := f.rx*cn, f.ry*sn
 		h := math.Sqrt(a*a + b*b)
 		dst = append(dst, sample{t: nu0 + float64(j)*hn, s: b / h, c: a / h})
-		sn, cn = sn*chN+cn*shN, cn*chN-sn*shN
 	}
 	dst = append(dst, sample{t: nu1})
 	return len(dst)
@@ -783,7 +789,8 @@ const reseed = 16
 // angle (ν0 = ν(t0) to ν1 = ν(t1)), then t1, and returns the count. The
 // sines and cosines of the steps come by rotation, not one Sincos each;
 // those of the two ends are not set.
-func (f *frame) mergedGrid(t0, t1, nu0, nu1 float64, n int, dst []sample, normals bool) int {
+func (f *frame) mergedGrid(x0 *foot, t1, nu1 float64, n int, dst []sample, normals bool) int {
+	t0, nu0 := x0.t, x0.nu
 	dst = append(dst, sample{t: t0})
 	ht := (t1 - t0) / float64(n+1)
 	hn := (nu1 - nu0) / float64(n+1)
@@ -797,12 +804,20 @@ func (f *frame) mergedGrid(t0, t1, nu0, nu1 float64, n int, dst []sample, normal
 	var shN, chN float64
 	if normals {
 		shN, chN = math.Sincos(hn)
+		// the first normal-angle step from the unit normal at t0, along
+		// (ry·cos t0, rx·sin t0)
+		c0, s0 := f.ry*x0.cs, f.rx*x0.sn
+		h0 := math.Hypot(c0, s0)
+		c0, s0 = c0/h0, s0/h0
+		sn, cn = s0*chN+c0*shN, c0*chN-s0*shN
 	}
+	// the first t step from the foot's own sine and cosine
+	st, ct = x0.sn*chT+x0.cs*shT, x0.cs*chT-x0.sn*shT
 	var nx sample
 	haveN := false
 	for i <= n || j <= n {
 		if !haveN && j <= n {
-			if (j-1)%reseed == 0 {
+			if (j-1)%reseed == 0 && j > 1 {
 				sn, cn = math.Sincos(nu0 + float64(j)*hn)
 			}
 			// The foot whose normal has angle ν: (cos t, sin t) lies
@@ -815,7 +830,7 @@ func (f *frame) mergedGrid(t0, t1, nu0, nu1 float64, n int, dst []sample, normal
 			sn, cn = sn*chN+cn*shN, cn*chN-sn*shN
 			haveN = true
 		}
-		if (i-1)%reseed == 0 && i <= n {
+		if (i-1)%reseed == 0 && i > 1 && i <= n {
 			st, ct = math.Sincos(t0 + float64(i)*ht)
 		}
 		tt := t0 + float64(i)*ht
@@ -909,7 +924,7 @@ func (a *Approximator) try(s *arcState, t1 float64, tr *trial) {
 func (s *arcState) slope(a *Approximator) float64 {
 	if !s.haveSlope {
 		f := &a.f
-		_, tc, n := f.at(s.tp, f.d)
+		_, tc, n := f.atSC(s.foot.sn, s.foot.cs, f.d)
 		tau := tc.scale(a.sigma)
 		s.dslope = s.tan.dot(n) / max(s.tan.dot(tau), 1e-3)
 		s.haveSlope = true
