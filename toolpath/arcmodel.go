@@ -18,8 +18,7 @@ import "math"
 // max δ and −min δ over the half-width w.
 type stepModel struct {
 	u0, v0, c, w float64
-	lim          float64 // the largest end deviation, in units of w
-	fixed        bool    // the end deviation is u1, not the deadbeat rule's
+	fixed        bool // the end deviation is u1, not the deadbeat rule's
 	u1           float64
 }
 
@@ -27,7 +26,7 @@ type stepModel struct {
 func (m *stepModel) ratio(l float64) float64 {
 	u1 := m.u1
 	if !m.fixed {
-		u1 = deadbeat(m.u0, m.v0-m.c*l*l/12, l, m.lim*m.w)
+		u1 = deadbeat(m.u0, m.v0-m.c*l*l/12, l, endLimit*m.w)
 	}
 	a := 2 * (u1 - m.u0 - m.v0*l - m.c*l*l*l/6) / (l * l)
 	hi, lo := max(m.u0, u1), min(m.u0, u1)

@@ -13,7 +13,7 @@ func denseModelRatio(m *stepModel, l float64) float64 {
 	u1 := m.u1
 	if !m.fixed {
 		u1 = 0.8 * (m.u0/2 + l*(m.v0-m.c*l*l/12)/4)
-		u1 = max(-m.lim*m.w, min(m.lim*m.w, u1))
+		u1 = max(-endLimit*m.w, min(endLimit*m.w, u1))
 	}
 	a := 2 * (u1 - m.u0 - m.v0*l - m.c*l*l*l/6) / (l * l)
 	worst := 0.0
@@ -32,7 +32,6 @@ func drawStepModel(t *rapid.T) stepModel {
 		v0:    rapid.Float64Range(-0.05, 0.05).Draw(t, "v0"),
 		c:     rapid.Float64Range(-1, 1).Draw(t, "c") * math.Pow(10, rapid.Float64Range(-6, 0).Draw(t, "log c")),
 		w:     w,
-		lim:   0.8,
 		fixed: rapid.Bool().Draw(t, "fixed"),
 		u1:    w * rapid.Float64Range(-0.8, 0.8).Draw(t, "u1"),
 	}
@@ -75,7 +74,7 @@ func TestStepModelCases(t *testing.T) {
 	// On the steady pattern (u₀ = 0, v₀ = g = cL²/12) the deadbeat end is
 	// the middle and the humps reach cL³/(72√3) (see endDeviation).
 	c, l, w := 2e-3, 10.0, 1.0
-	m := stepModel{v0: c * l * l / 12, c: c, w: w, lim: 0.8}
+	m := stepModel{v0: c * l * l / 12, c: c, w: w}
 	want := c * l * l * l / (72 * math.Sqrt(3)) / w
 	if got := m.ratio(l); math.Abs(got-want) > 1e-12 {
 		t.Errorf("steady pattern: ratio %.15g, want %.15g", got, want)
@@ -86,10 +85,10 @@ func TestStepModelCases(t *testing.T) {
 		l0   float64
 		ok   bool
 	}{
-		{"no length", stepModel{w: 1, lim: 0.8, c: 1}, 0, false},
-		{"NaN length", stepModel{w: 1, lim: 0.8, c: 1}, math.NaN(), false},
-		{"never reaches the target", stepModel{w: 1, lim: 0.8, fixed: true}, 1, false},
-		{"reaches it", stepModel{w: 1, lim: 0.8, c: 1e-3}, 10, true},
+		{"no length", stepModel{w: 1, c: 1}, 0, false},
+		{"NaN length", stepModel{w: 1, c: 1}, math.NaN(), false},
+		{"never reaches the target", stepModel{w: 1, fixed: true}, 1, false},
+		{"reaches it", stepModel{w: 1, c: 1e-3}, 10, true},
 	}
 	for _, tt := range tests {
 		if _, ok := tt.m.span(0.9, tt.l0, tt.m.ratio(tt.l0)); ok != tt.ok {

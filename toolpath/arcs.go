@@ -76,6 +76,11 @@ const (
 	lookSegments       = 60
 	lookCurvatureRatio = 20
 	planMax            = 64 // segments of a stretch planned backwards
+	// The deadbeat rule's end deviation stays within these shares of the
+	// half-width off the middle (see endDeviation); the second where the
+	// normals fan out across the zone.
+	endLimit    = 0.8
+	endLimitFan = 0.3
 	// The endgame skips steps whose model (see stepModel) uses more than
 	// this share of the zone.
 	endgameModelMax = 1.3
@@ -722,6 +727,15 @@ const (
 	gridMerged        // both, merged in order of t
 )
 
+// normalSC returns cos ν and sin ν, ν the normal angle at the foot x:
+// the unit vector along (ry·cos t, rx·sin t), from the foot's own sine and
+// cosine.
+func (f *frame) normalSC(x *foot) (cn, sn float64) {
+	cn, sn = f.ry*x.cs, f.rx*x.sn
+	h := math.Hypot(cn, sn)
+	return cn / h, sn / h
+}
+
 // normalGrid appends to dst ν0 = ν(x.t), n steps uniform in the normal
 // angle and ν1, with the sines and cosines of their feet (by rotation,
 // from the normal at x and recomputed every reseed steps; not set at the
@@ -731,10 +745,7 @@ func (f *frame) normalGrid(x *foot, nu1 float64, n int, dst []sample) int {
 	dst = append(dst, sample{t: nu0})
 	hn := (nu1 - nu0) / float64(n+1)
 	shN, chN := math.Sincos(hn)
-	// cos ν0, sin ν0: the unit normal at x, along (ry·cos t, rx·sin t)
-	cn, sn := f.ry*x.cs, f.rx*x.sn
-	h0 := math.Hypot(cn, sn)
-	cn, sn = cn/h0, sn/h0
+	cn, sn := f.normalSC(x)
 	for j := 1; j <= n; j++ {
 		if (j-1)%reseed == 0 && j > 1 {
 			sn, cn = math.Sincos(nu0 + float64(j)*hn)
@@ -804,11 +815,8 @@ func (f *frame) mergedGrid(x0 *foot, t1, nu1 float64, n int, dst []sample, norma
 	var shN, chN float64
 	if normals {
 		shN, chN = math.Sincos(hn)
-		// the first normal-angle step from the unit normal at t0, along
-		// (ry·cos t0, rx·sin t0)
-		c0, s0 := f.ry*x0.cs, f.rx*x0.sn
-		h0 := math.Hypot(c0, s0)
-		c0, s0 = c0/h0, s0/h0
+		// the first normal-angle step from the normal at t0
+		c0, s0 := f.normalSC(x0)
 		sn, cn = s0*chN+c0*shN, c0*chN-s0*shN
 	}
 	// the first t step from the foot's own sine and cosine
@@ -1427,7 +1435,7 @@ func (s *arcState) model(a *Approximator, dt, e1 float64, fixed bool) (md stepMo
 	sn, cn := math.Sincos(s.tp + a.sigma*0.5*dt)
 	v2, v, _, kp := f.footBase(sn, cn)
 	v += (f.d + m) * f.rx * f.ry / v2
-	md = stepModel{u0: s.dev - m, v0: s.slope(a), c: a.sigma * kp, w: a.hi - m, lim: 0.8}
+	md = stepModel{u0: s.dev - m, v0: s.slope(a), c: a.sigma * kp, w: a.hi - m}
 	if fixed {
 		md.fixed, md.u1 = true, e1-m
 	}
@@ -1510,11 +1518,11 @@ func (a *Approximator) patternSlope(f0, fm, f1 *foot) (g, l float64) {
 func (a *Approximator) endDeviation(s *arcState, fm, f1 *foot) float64 {
 	m := a.mid()
 	g, l := a.patternSlope(&s.foot, fm, f1)
-	lim := 0.8
+	lim := endLimit
 	if a.fans(max(s.foot.k, f1.k)) {
 		// Where the normals fan out the model means little, and an end
 		// near the edge round a needle's tip can leave no way on.
-		lim = 0.3
+		lim = endLimitFan
 	}
 	return m + deadbeat(s.dev-m, s.slope(a)-g, l, lim*(a.hi-m))
 }
