@@ -277,6 +277,13 @@ func segmentNear(t *rapid.T, c ellipse.Parallel) toolpath.Segment {
 		return line(x0, y0, x1, y1)
 	}
 	xm, ym := pt(t0+span*rapid.Float64Range(0.2, 0.8).Draw(t, "mid"), "offm")
+	return arcThrough(x0, y0, xm, ym, x1, y1, 1e6*a)
+}
+
+// arcThrough returns the arc from (x0, y0) through (xm, ym) to (x1, y1),
+// or the line between the ends where the three are in line or the
+// circle's radius exceeds rmax.
+func arcThrough(x0, y0, xm, ym, x1, y1, rmax float64) toolpath.Segment {
 	// circumcentre of the three points
 	bx, by := xm-x0, ym-y0
 	cx, cy := x1-x0, y1-y0
@@ -287,12 +294,40 @@ func segmentNear(t *rapid.T, c ellipse.Parallel) toolpath.Segment {
 	ux := (cy*(bx*bx+by*by) - by*(cx*cx+cy*cy)) / dd
 	uy := (bx*(cx*cx+cy*cy) - cx*(bx*bx+by*by)) / dd
 	r := math.Hypot(ux, uy)
-	if r > 1e6*a {
+	if r > rmax {
 		return line(x0, y0, x1, y1)
 	}
 	return toolpath.Segment{Kind: toolpath.Arc, Motion: toolpath.Cut,
 		Start: toolpath.Point{X: x0, Y: y0}, End: toolpath.Point{X: x1, Y: y1},
 		CenterX: x0 + ux, CenterY: y0 + uy, Radius: r, Clockwise: dd < 0}
+}
+
+// TestDenseDeviationFindsTheDipAcrossATip: the slow reference itself, on
+// the arc that once failed the accuracy test (seed 78436870764546577). It
+// crosses a needle (b/a = 1e-3) just past its sharp end and dips 7.5e-6
+// inside it over a stretch narrower than a 20 000th of the arc, which
+// plain sampling stepped over; SegmentDeviation found it. At 20 000
+// samples the reference must agree with SegmentDeviation, and with itself
+// at 2 000 000.
+func TestDenseDeviationFindsTheDipAcrossATip(t *testing.T) {
+	a := math.Pow(10, 0.0546875)
+	e := mustEllipse(t, ellipse.Point{X: 0.5, Y: 0.5}, a, a*1e-3, 0.5)
+	c := e.Curve()
+	pt := func(tt, off float64) (float64, float64) {
+		q, n := c.PointAt(tt), c.Normal(tt)
+		return q.X + off*n.X, q.Y + off*n.Y
+	}
+	t0, span := -3.7880859375, math.Pow(10, 3.0517578125e-05)
+	x0, y0 := pt(t0, 4.76837158203125e-07)
+	x1, y1 := pt(t0+span, 0.564208984375)
+	xm, ym := pt(t0+span*0.6371126042213291, -4.5367776140110277e-07)
+	s := arcThrough(x0, y0, xm, ym, x1, y1, 1e6*a)
+	lo, _ := SegmentDeviation(c, s)
+	dlo, _ := denseDeviation(c, s, 20000)
+	flo, _ := denseDeviation(c, s, 2000000)
+	if math.Abs(dlo-lo) > 1e-12 || math.Abs(dlo-flo) > 1e-12 || !(lo < -7e-6) {
+		t.Errorf("lowest deviation: reference %.6g at 20 000 samples, %.6g at 2 000 000, SegmentDeviation %.6g; want all equal, near -7.5e-6", dlo, flo, lo)
+	}
 }
 
 func drawCurve(t *rapid.T) ellipse.Parallel {
