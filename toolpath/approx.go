@@ -132,6 +132,7 @@ type Approximator struct {
 	limit  int     // segments allowed before the approximation counts as stalled
 	nEst   float64 // the guard's estimate of N*
 	look   bool    // the arc chain looks one arc ahead (see arcState.start)
+	plans  bool    // and plans backwards where the curvature falls
 	// planning: the arc chain is building a stretch backwards (see
 	// arcState.planExit) into plan.
 	planning bool

@@ -29,27 +29,33 @@ import (
 // interpolating biarcs onto the curve's own tangent; near the end a step
 // is chosen, where one exists, after which a single biarc closes.
 //
-// Short paths round curves whose radius of curvature ranges over more
-// than lookCurvatureRatio (flat ellipses and their parallel curves at
-// coarse tolerances: fewer than lookSegments arcs by N*) take two more
-// measures, because there each arc spans a several-fold change of
-// curvature and the greedy chain loses up to half the zone:
+// Curves whose radius of curvature ranges over more than
+// lookCurvatureRatio (flat ellipses and their parallel curves) plan
+// backwards where the curvature falls ahead, and short paths round them
+// (coarse tolerances: fewer than lookSegments arcs by N*) also look
+// ahead, because there each arc spans a several-fold change of curvature
+// and the greedy chain loses up to half the zone:
 //
-//   - Look-ahead: each step also tries ends at five fixed deviations
-//     and keeps the one whose step, followed by the next step by
-//     the deadbeat rule, reaches farthest.
 //   - Backward planning: where the curvature falls ahead (from an end of
 //     the major axis to the next end of the minor axis), greedy arcs
 //     start where the curve turns fastest with their tangent already
-//     fixed, and are short. Run the other way the same stretch is one of
-//     rising curvature, where the chain does well; so the stretch is
-//     built backwards, from the curve's own tangent at its far end to a
-//     closing onto the current state, into a buffer of planMax segments
-//     in the Approximator, and emitted reversed when it takes fewer arcs
-//     than the forward chain (counted over the same stretch).
+//     fixed, and are short; on a flat gasket they fall into a cycle of
+//     four steps, one of them a third as long as the others. Run the
+//     other way the same stretch is one of rising curvature, where the
+//     chain does well; so the stretch is built backwards, from the
+//     curve's own tangent at its far end to a closing onto the current
+//     state, into a buffer of planMax segments in the Approximator, and
+//     emitted reversed. Where the arcs look ahead the forward chain is
+//     run over the stretch as well and kept when it takes no more arcs.
+//     Paths of more than planSegments arcs by N* do not plan: a quarter
+//     of them would not fit the buffer.
+//   - Look-ahead: each step also tries ends at five fixed deviations
+//     and keeps the one whose step, followed by the next step by
+//     the deadbeat rule, reaches farthest.
 //
-// On the count test's shapes that pass the gate, the two save a fifth of
-// the arcs for about five times the work per arc (README, DEVELOPERS.md).
+// On the count test's shapes that look ahead, the two save a fifth of
+// the arcs for about five times the work per arc; planning alone saves
+// arcs and trials both (README, DEVELOPERS.md).
 
 const (
 	arcSamples = 6
@@ -76,6 +82,9 @@ const (
 	lookSegments       = 60
 	lookCurvatureRatio = 20
 	planMax            = 64 // segments of a stretch planned backwards
+	// planSegments is the most arcs by N* of a path that plans: a
+	// quarter of the path at 1.6 times N* is 0.4·N*, within planMax.
+	planSegments = 160
 	// The deadbeat rule's end deviation stays within these shares of the
 	// half-width off the middle (see endDeviation); the second where the
 	// normals fan out across the zone.
@@ -157,6 +166,7 @@ func (s *arcState) start(a *Approximator) {
 	}
 	*s = arcState{p: p, tan: tan, tp: a.spec.From, dev: m, foot: a.footAt(a.spec.From)}
 	a.look = look
+	a.plans = look || (kr > lookCurvatureRatio && a.nEst <= planSegments)
 	q, tq, _ := f.at(a.tEnd, f.d+m)
 	s.p0, s.t0, s.dev0 = q, tq.scale(a.sigma), m
 	s.noPlan = math.NaN()
@@ -1012,7 +1022,7 @@ func (s *arcState) next(a *Approximator) (Segment, bool) {
 	if s.iFwd < s.nFwd {
 		return s.nextForward(a), true
 	}
-	if a.look && !a.planning && s.falling(a) && s.planExit(a) {
+	if a.plans && !a.planning && s.falling(a) && s.planExit(a) {
 		if s.nPlan > 0 {
 			return s.nextPlanned(a), true
 		}
@@ -1157,10 +1167,12 @@ func (s *arcState) falling(a *Approximator) bool {
 // curvature falls fast beneath them (each arc starts where the curve
 // turns fastest, with its tangent fixed); run the other way, the same
 // stretch is one where the curvature rises, which the chain covers with
-// nearly the fewest arcs. The forward chain is run over the stretch as
-// well and kept if it takes no more arcs. It reports whether the stretch
-// was done either way (the backward chain must fit in a.plan and close);
-// else the chain goes on forward.
+// nearly the fewest arcs. Where the arcs look ahead the forward chain is
+// run over the stretch as well and kept if it takes no more arcs (without
+// look-ahead the backward chain did better on 10 000 draws: its closing
+// costs an arc where the forward chain's cycle wastes one every four
+// steps). It reports whether the stretch was done (the backward chain
+// must fit in a.plan and close); else the chain goes on forward.
 func (s *arcState) planExit(a *Approximator) bool {
 	f := &a.f
 	base := f.majorEnd() + math.Pi/2 // an end of the minor axis
@@ -1219,11 +1231,12 @@ func (s *arcState) planExit(a *Approximator) bool {
 		a.planning = false
 		return false
 	}
-	// The forward chain over the same stretch, kept: the plan is used
-	// only where it saves arcs, else these are.
+	// Where the arcs look ahead, the forward chain over the same
+	// stretch, kept: the plan is used only where it saves arcs, else
+	// these are.
 	fs := *s
 	nf := 0
-	for nf <= n && (tT-fs.tp)*a.sigma > 0 {
+	for a.look && nf <= n && (tT-fs.tp)*a.sigma > 0 {
 		seg, more := fs.next(a)
 		if !more {
 			break
