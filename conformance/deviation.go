@@ -140,14 +140,45 @@ const (
 //
 //	SegmentDeviation(c, s) = NaN, NaN if a coordinate of s is NaN or infinite
 func SegmentDeviation(curve ellipse.Parallel, s toolpath.Segment) (lo, hi float64) {
+	var ev devEval
+	lo, hi = ev.deviation(curve, s, 0, false)
+	return lo, hi
+}
+
+// endsDeviation is SegmentDeviation given the foot parameter t0 of the
+// segment's start (from the exact method), which seeds the first Newton
+// solve, and it also returns the deviation f1 of End as written and its
+// foot t1: Newton's method from the foot of the segment's own end (for an
+// arc the point its centre, radius and sweep put there, which the rounding
+// of the written numbers may move a little off End), or the exact method
+// where that does not settle. The geometry rules use it to measure each
+// end once.
+func endsDeviation(curve ellipse.Parallel, s toolpath.Segment, t0 float64) (lo, hi, t1, f1 float64) {
+	var ev devEval
+	lo, hi = ev.deviation(curve, s, t0, true)
+	if lo != lo || hi != hi {
+		return lo, hi, math.NaN(), math.NaN()
+	}
+	qx, qy := ev.local(s.End.X, s.End.Y)
+	if f, t, ok := ev.newton(qx, qy, ev.tEnd); ok {
+		return lo, hi, t, f
+	}
+	t, sd := ev.e.Nearest(ellipse.Point{X: s.End.X, Y: s.End.Y})
+	return lo, hi, t, sd - ev.d
+}
+
+// deviation is SegmentDeviation in v, the first foot from the
+// parameter t0 when seeded; it leaves in v.tEnd the foot of the segment's
+// end (as its centre, radius and sweep put it, for an arc).
+func (v *devEval) deviation(curve ellipse.Parallel, s toolpath.Segment, t0 float64, seeded bool) (lo, hi float64) {
 	if !finite(s.Start.X) || !finite(s.Start.Y) || !finite(s.End.X) || !finite(s.End.Y) ||
 		(s.Kind == toolpath.Arc && (!finite(s.CenterX) || !finite(s.CenterY))) {
 		return math.NaN(), math.NaN()
 	}
-	var ev devEval
-	ev.init(curve, s)
-	if !(ev.length > 0) {
-		f, _ := ev.exact(0)
+	v.init(curve, s)
+	if !(v.length > 0) {
+		f, t := v.exact(0)
+		v.tEnd = t
 		return f, f
 	}
 
@@ -158,39 +189,44 @@ func SegmentDeviation(curve ellipse.Parallel, s toolpath.Segment) (lo, hi float6
 	// curvatures and angles at the samples are taken for an arc only, or
 	// for a line that goes on to the dense pass.
 	var maxTan float64 // largest tan θ at the samples
-	fs[0], ts[0] = ev.start()
+	if seeded {
+		fs[0], ts[0] = v.startFrom(t0)
+	} else {
+		fs[0], ts[0] = v.start()
+	}
 	var rate float64
-	gs[0], rate = ev.slope(0, fs[0])
+	gs[0], rate = v.slope(0, fs[0])
 	flo, fhi := fs[0], fs[0]
-	if ev.arc {
-		ks[0], maxTan = ev.kappa(), ev.misalignment(0)
+	if v.arc {
+		ks[0], maxTan = v.kappa(), v.misalignment(0)
 	}
 	for i := 1; i <= devFirst; i++ {
 		u := float64(i) / devFirst
-		fs[i], ts[i] = ev.track(u, ts[i-1]+rate/devFirst, 1.0/devFirst, fs[i-1])
-		gs[i], rate = ev.slope(u, fs[i])
+		fs[i], ts[i] = v.track(u, ts[i-1]+rate/devFirst, 1.0/devFirst, fs[i-1])
+		gs[i], rate = v.slope(u, fs[i])
 		flo, fhi = math.Min(flo, fs[i]), math.Max(fhi, fs[i])
-		if ev.arc {
-			ks[i], maxTan = ev.kappa(), math.Max(maxTan, ev.misalignment(u))
+		if v.arc {
+			ks[i], maxTan = v.kappa(), math.Max(maxTan, v.misalignment(u))
 		}
 	}
-	us, k := ev.medialCrossings()
-	if !ev.arc {
+	v.tEnd = ts[devFirst]
+	us, k := v.medialCrossings()
+	if !v.arc {
 		if k == 0 {
-			if lo, hi, ok := ev.search(&fs, &gs, &ts, nil); ok {
+			if lo, hi, ok := v.search(&fs, &gs, &ts, nil); ok {
 				return lo, hi
 			}
 		}
-		maxTan = ev.shape(&ts, &ks)
+		maxTan = v.shape(&ts, &ks)
 	}
-	if k == 0 && ev.arc {
-		if b, ok := ev.bendBound(&ts, &ks, flo, fhi, maxTan); ok {
-			if lo, hi, ok := ev.search(&fs, &gs, &ts, &b); ok {
+	if k == 0 && v.arc {
+		if b, ok := v.bendBound(&ts, &ks, flo, fhi, maxTan); ok {
+			if lo, hi, ok := v.search(&fs, &gs, &ts, &b); ok {
 				return lo, hi
 			}
 		}
 	}
-	n := ev.intervals(&ts, &ks, flo, fhi, maxTan)
+	n := v.intervals(&ts, &ks, flo, fhi, maxTan)
 
 	// Dense pass, tracking the foot from sample to sample.
 	var x extremes
@@ -206,17 +242,17 @@ func SegmentDeviation(curve ellipse.Parallel, s toolpath.Segment) (lo, hi float6
 				guess += t - tPrev
 			}
 			tPrev = t
-			f, t = ev.track(float64(i)*h, guess, h, f)
+			f, t = v.track(float64(i)*h, guess, h, f)
 		}
 		x.add(i, f, t)
 	}
 	hi = x.maxF // a line's maximum is at an end: the deviation is convex
-	if ev.arc {
-		hi = ev.refine(x.maxI, n, x.maxF, x.maxT, x.maxL, x.maxR, 1)
+	if v.arc {
+		hi = v.refine(x.maxI, n, x.maxF, x.maxT, x.maxL, x.maxR, 1)
 	}
-	lo = -ev.refine(x.minI, n, -x.minF, x.minT, -x.minL, -x.minR, -1)
+	lo = -v.refine(x.minI, n, -x.minF, x.minT, -x.minL, -x.minR, -1)
 	for _, u := range us[:k] {
-		f, _ := ev.exact(u)
+		f, _ := v.exact(u)
 		lo, hi = math.Min(lo, f), math.Max(hi, f)
 	}
 	return lo, hi
@@ -235,6 +271,7 @@ type devEval struct {
 	size             float64 // a + |d|
 	e                ellipse.Ellipse
 	footSin, footCos float64 // of the foot parameter last found
+	tEnd             float64 // the foot of the segment's end (see deviation)
 	// the segment
 	arc          bool
 	sx, sy       float64 // start

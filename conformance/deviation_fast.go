@@ -179,6 +179,17 @@ func (v *devEval) newton(qx, qy, t0 float64) (f, t float64, ok bool) {
 				if !(sd > -0.5*v.reach) {
 					return 0, 0, false
 				}
+				// The distance is settled, but the foot may still be
+				// off by the step (up to a few 1e-9), and the slope
+				// (see slope) takes the normal there: one more step
+				// turns the foot to within the square of that.
+				if d := -step; d != 0 {
+					d2 := d * d
+					sinD := d * (1 - d2/6*(1-d2/20))
+					cosD := 1 - d2/2*(1-d2/12)
+					sn, cs = sn*cosD+cs*sinD, cs*cosD-sn*sinD
+					t -= step
+				}
 				v.footSin, v.footCos = sn, cs
 				return sd - v.d, t, true
 			}
@@ -207,6 +218,17 @@ func (v *devEval) start() (f, t float64) {
 	x, y := v.point(0)
 	qx, qy := v.local(x, y)
 	if f, t, ok := v.newton(qx, qy, math.Atan2(qy*v.rx, qx*v.ry)); ok {
+		return f, t
+	}
+	return v.exact(0)
+}
+
+// startFrom is start with the foot parameter t0 of the start known (from
+// the exact method): Newton's method from it settles at once.
+func (v *devEval) startFrom(t0 float64) (f, t float64) {
+	x, y := v.point(0)
+	qx, qy := v.local(x, y)
+	if f, t, ok := v.newton(qx, qy, t0); ok {
 		return f, t
 	}
 	return v.exact(0)

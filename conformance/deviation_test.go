@@ -567,3 +567,31 @@ func TestLowerBoundHoldsAndIsTight(t *testing.T) {
 		}
 	})
 }
+
+// TestSegmentDeviationSlopesNearlyConcentric: an arc almost concentric
+// with a nearly round ellipse (b/a = 1 − 3.4e-8, the arc's centre 3e-7
+// off), whose deviation spans only 1.7e-8. Newton's method once stopped
+// when the distance had settled, with the foot still a few 1e-9 off; the
+// normal there tilted the samples' slopes by more than the range, the
+// bounded search trusted them and reported the maximum 1.4 % low (a draw
+// of TestSegmentDeviationWithinOnePercentOfDense at 2000 checks).
+func TestSegmentDeviationSlopesNearlyConcentric(t *testing.T) {
+	a, ratio := 10.0, math.Pow(10, -1.4901161193847656e-08)
+	c := mustParallel(t, mustEllipse(t, ellipse.Point{X: 1, Y: 1}, a*ratio, a, 1), 0)
+	pt := func(tt, off float64) (float64, float64) {
+		q, n := c.PointAt(tt), c.Normal(tt)
+		return q.X + off*n.X, q.Y + off*n.Y
+	}
+	span := math.Pow(10, 0.03125)
+	x0, y0 := pt(2, 7.450580596923828e-09)
+	x1, y1 := pt(2+span, 2.9103830456733704e-11)
+	xm, ym := pt(2+0.2*span, 1.862645149230957e-09)
+	s := arcThrough(x0, y0, xm, ym, x1, y1, 1e6*a)
+	lo, hi := SegmentDeviation(c, s)
+	dlo, dhi := denseDeviation(c, s, 20000)
+	eps := 1e-13 * (a + 2) // rounding, as in TestSegmentDeviationWithinOnePercentOfDense
+	allow := 0.01*(dhi-dlo) + eps
+	if !(lo >= dlo-eps && lo <= dlo+allow) || !(hi <= dhi+eps && hi >= dhi-allow) {
+		t.Errorf("got %.10g to %.10g, dense %.10g to %.10g (allowed %.3g)", lo, hi, dlo, dhi, allow)
+	}
+}

@@ -132,9 +132,21 @@ func (g *geometry) walk() {
 			continue // a plunge or a lift inside the cut: joins, measures nothing
 		}
 		t0, d0 := g.foot(s.Start.X, s.Start.Y)
-		_, d1 := g.foot(s.End.X, s.End.Y)
-		var lo, hi float64
+		var d1, lo, hi float64
 		measured := false
+		if !g.outside(d0) {
+			// A move from within the zone is measured first, its end on
+			// the way (see endsDeviation); only an end outside the zone
+			// is taken again by the exact method, for the rules below.
+			var t1 float64
+			lo, hi, t1, d1 = endsDeviation(g.curve, *s, t0)
+			if measured = !g.outside(d1); measured {
+				g.lastX, g.lastY, g.lastT, g.lastD, g.haveLast = s.End.X, s.End.Y, t1, d1, true
+			}
+		}
+		if !measured {
+			_, d1 = g.foot(s.End.X, s.End.Y)
+		}
 		lead := false
 		if (g.away(d0) || g.away(d1)) && g.r.Shape.Zone != toolpath.Band {
 			// The deviation changes no faster than the distance along
