@@ -95,7 +95,7 @@ func (m *stepModel) span(target, l0, r0 float64) (l float64, ok bool) {
 	a3, b3 := a*a*a, b*b*b
 	for i := 0; i < 6; i++ {
 		c3 := b3 - fb*(b3-a3)/(fb-fa)
-		c := math.Cbrt(c3)
+		c := cbrtNear(c3, b3, b)
 		if math.Abs(c-b) <= 0.003*b {
 			return c, true
 		}
@@ -111,4 +111,14 @@ func (m *stepModel) span(target, l0, r0 float64) (l float64, ok bool) {
 		b, b3, fb = c, c3, fc
 	}
 	return b, true
+}
+
+// cbrtNear returns the cube root of x given b, the cube root of b3 = b³,
+// near it: within 10 % by a second-order series in x/b3 − 1 (error below
+// 1e-4, well inside span's 0.3 %), else by math.Cbrt.
+func cbrtNear(x, b3, b float64) float64 {
+	if e := x/b3 - 1; e > -0.1 && e < 0.1 {
+		return b * (1 + e/3*(1-e/3))
+	}
+	return math.Cbrt(x)
 }

@@ -503,7 +503,8 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 		// eight times devMiss of the half-width.
 		halve := 0
 		if dk > 0 {
-			for hc := 2 * math.Cbrt(24*miss/dk); h > hc && halve < 6; h /= 2 {
+			// h > 2·(24·miss/dk)^(1/3), by cubes
+			for ; halve < 6 && h*h*h*dk > 192*miss; h /= 2 {
 				halve++
 			}
 		}
