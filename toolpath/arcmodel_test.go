@@ -96,3 +96,14 @@ func TestStepModelCases(t *testing.T) {
 		}
 	}
 }
+
+func TestCbrtNear(t *testing.T) {
+	for _, c := range []struct{ x, b float64 }{
+		{1, 1}, {1.09, 1}, {0.91, 1}, {1.2, 1}, {0.5, 1}, {8.5e-9, 2e-3}, {7.1e12, 2e4}, {1e-300, 1},
+	} {
+		got, want := cbrtNear(c.x, c.b*c.b*c.b, c.b), math.Cbrt(c.x)
+		if math.Abs(got-want) > 1e-4*want {
+			t.Errorf("cbrtNear(%g, b=%g) = %.17g, want %.17g", c.x, c.b, got, want)
+		}
+	}
+}
