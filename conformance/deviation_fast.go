@@ -143,7 +143,10 @@ type devBounds struct{ lo, loAt, hi, hiAt float64 }
 // (q − p(t))·n(t) is wrong only in the second order of the error δ in t:
 // by ½·κ|p′|²·(1 + g·κ)·δ² for a point at distance g from the ellipse
 // (expand p and n to second order; n·n″ = −|n′|²), so once the next step
-// δ makes that negligible the iteration ends without another evaluation.
+// δ makes that negligible the iteration ends without another evaluation;
+// the foot is still moved by that step (its sine and cosine turned), for
+// the normal there is only first-order right and the slopes of the
+// bounded search use it.
 //
 // A root found is the nearest point whatever the start: the point is
 // q = p(t) + λ·n(t) with λ its signed distance along the normal, and a
