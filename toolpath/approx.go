@@ -116,6 +116,15 @@ func RoundingAllowance(decimals int) float64 {
 // Approximator streams the segments of a Spec. It holds O(1) state and
 // allocates nothing per segment; create it with [NewApproximator] and call
 // [Approximator.Next] until it reports false.
+//
+// The work per call is bounded but uneven where the arcs plan a stretch
+// backwards (curves whose radius of curvature ranges over more than
+// twentyfold, on paths of up to 160 arcs by N*): the call that reaches
+// such a stretch builds all of it, up to 64 segments, and the following
+// calls return them: on the benchmark machine the slowest call took
+// 0.16 ms on the flat gasket (95 arcs) and 1.4 ms on the 19-arc slot,
+// which also looks ahead, against 47 µs on the tabletop. The state, two
+// segment buffers for this and the sample grids, is about 25 KB.
 type Approximator struct {
 	spec   Spec
 	f      frame
