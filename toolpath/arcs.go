@@ -1315,8 +1315,8 @@ func (s *arcState) commit(tr *trial, dt, pred float64) Segment {
 // falls short. Measured on 10 000 draws of the count test's generator
 // (DEVELOPERS.md), before planning without look-ahead: powers 0, 0.05,
 // 0.12, 0.2 and 1/3 gave N/N* 1.488, 1.463, 1.458, 1.508 and 1.553, the
-// gain in the flattest ellipses. Not where the arcs look ahead: there it
-// cost arcs.
+// gain in the flattest ellipses. Not where the arcs look ahead (there it
+// cost arcs), nor on paths of fewer than aimSegments arcs by N*.
 func (s *arcState) aimLonger(r float64) {
 	if r > 0.3 && r < arcTarget {
 		x := math.Sqrt(math.Sqrt(math.Sqrt(arcTarget / r)))
