@@ -220,14 +220,11 @@ func (v *devEval) newton(qx, qy, t0 float64) (f, t float64, ok bool) {
 func (v *devEval) start() (f, t float64) {
 	x, y := v.point(0)
 	qx, qy := v.local(x, y)
-	if f, t, ok := v.newton(qx, qy, math.Atan2(qy*v.rx, qx*v.ry)); ok {
-		return f, t
-	}
-	return v.exact(0)
+	return v.startFrom(math.Atan2(qy*v.rx, qx*v.ry))
 }
 
-// startFrom is start with the foot parameter t0 of the start known (from
-// the exact method): Newton's method from it settles at once.
+// startFrom is start from the guess t0 of the foot parameter (the known
+// foot, from the exact method, settles at once).
 func (v *devEval) startFrom(t0 float64) (f, t float64) {
 	x, y := v.point(0)
 	qx, qy := v.local(x, y)
