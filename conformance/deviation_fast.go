@@ -186,13 +186,8 @@ func (v *devEval) newton(qx, qy, t0 float64) (f, t float64, ok bool) {
 				// off by the step (up to a few 1e-9), and the slope
 				// (see slope) takes the normal there: one more step
 				// turns the foot to within the square of that.
-				if d := -step; d != 0 {
-					d2 := d * d
-					sinD := d * (1 - d2/6*(1-d2/20))
-					cosD := 1 - d2/2*(1-d2/12)
-					sn, cs = sn*cosD+cs*sinD, cs*cosD-sn*sinD
-					t -= step
-				}
+				sn, cs = turnSmall(sn, cs, -step)
+				t -= step
 				v.footSin, v.footCos = sn, cs
 				return sd - v.d, t, true
 			}
@@ -201,16 +196,23 @@ func (v *devEval) newton(qx, qy, t0 float64) (f, t float64, ok bool) {
 			return 0, 0, false
 		}
 		t -= step
-		if d := -step; math.Abs(d) < 1e-3 {
-			d2 := d * d
-			sd := d * (1 - d2/6*(1-d2/20))
-			cd := 1 - d2/2*(1-d2/12)
-			sn, cs = sn*cd+cs*sd, cs*cd-sn*sd
+		if math.Abs(step) < 1e-3 {
+			sn, cs = turnSmall(sn, cs, -step)
 		} else {
 			sn, cs = math.Sincos(t)
 		}
 	}
 	return 0, 0, false
+}
+
+// turnSmall returns the sine and cosine of an angle whose sine and cosine
+// are sn and cs, plus a small d (|d| < 1e-3: the series' first terms left
+// out, d⁷/5040 and d⁶/720, are below 1e-20).
+func turnSmall(sn, cs, d float64) (float64, float64) {
+	d2 := d * d
+	sd := d * (1 - d2/6*(1-d2/20))
+	cd := 1 - d2/2*(1-d2/12)
+	return sn*cd + cs*sd, cs*cd - sn*sd
 }
 
 // start returns the deviation at the start of the segment and its foot:
