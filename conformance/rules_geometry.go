@@ -98,8 +98,14 @@ func (g *geometry) foot(x, y float64) (t, d float64) {
 	}
 	t, d = g.el.Nearest(ellipse.Point{X: x, Y: y})
 	d -= g.curve.Offset()
-	g.lastX, g.lastY, g.lastT, g.lastD, g.haveLast = x, y, t, d, true
+	g.remember(x, y, t, d)
 	return t, d
+}
+
+// remember keeps the foot parameter t and deviation d of the point (x, y)
+// for foot.
+func (g *geometry) remember(x, y, t, d float64) {
+	g.lastX, g.lastY, g.lastT, g.lastD, g.haveLast = x, y, t, d, true
 }
 
 // outside reports whether a deviation breaks the zone.
@@ -141,7 +147,7 @@ func (g *geometry) walk() {
 			var t1 float64
 			lo, hi, t1, d1 = endsDeviation(g.curve, *s, t0)
 			if measured = !g.outside(d1); measured {
-				g.lastX, g.lastY, g.lastT, g.lastD, g.haveLast = s.End.X, s.End.Y, t1, d1, true
+				g.remember(s.End.X, s.End.Y, t1, d1)
 			}
 		}
 		if !measured {
