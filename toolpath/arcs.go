@@ -191,7 +191,7 @@ func (s *arcState) fullCircle(a *Approximator) {
 	d0 := f.circleDev(a.spec.From, &g)
 	f0, fm, f1 := a.footAt(a.spec.From), a.footAt(0.5*(a.spec.From+a.tEnd)), a.footAt(a.tEnd)
 	lo, hi := a.devRange(&f0, &fm, &f1, d0, d0, &g)
-	if m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo); !(lo >= m-w && hi <= m+w) {
+	if !a.fits(lo, hi) {
 		return
 	}
 	s.full = true
@@ -392,10 +392,10 @@ func (f *frame) footBase(s, c float64) (v2, v, ke, kp float64) {
 // agree within devMiss/4 of the half-width (first halving the bracket
 // about the best sample, where the first parabola's vertex falls on it
 // and |κ′|·h³/24 exceeds eight times devMiss of the half-width: there
-// the check at the vertex would only repeat the sample). Where the zone is wide beside
-// the radius of curvature (above 5%) the normals fan out across it and λ
-// is not smooth enough to polish; there h also keeps the one-parabola miss
-// |κ′|·h³/24 below devMiss of the half-width. Uniform steps in the parameter
+// the check at the vertex would only repeat the sample). Where the zone
+// is wide beside the radius of curvature (above 5%) the normals fan out
+// across it and λ is not smooth enough to polish; there h also keeps the
+// one-parabola miss |κ′|·h³/24 below devMiss of the half-width. Uniform steps in the parameter
 // t crowd the flat stretches of a flat ellipse and starve its tips, and
 // uniform steps in the normal angle do the opposite, so half the samples
 // come from each grid, merged in order.
@@ -1615,22 +1615,27 @@ func (a *Approximator) biarcFits(p, tg vec, tp, dev float64, q, tq vec, t1, dev1
 		return false
 	}
 	devJ := a.f.e.SignedDistance(ptOf(j)) - a.f.d
-	m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo)
 	// The join, then each arc in turn: the first outside the zone decides.
-	if !(devJ >= m-w && devJ <= m+w) {
+	if !a.fits(devJ, devJ) {
 		return false
 	}
 	var g1, g2 arcGeom
 	a.newArcGeom(&g1, p, tg, a1, j)
 	fp, fj := a.footAt(tp), a.footAt(tj)
 	fm1 := a.footAt(0.5 * (tp + tj))
-	if lo, hi := a.devRange(&fp, &fm1, &fj, dev, devJ, &g1); !(lo >= m-w && hi <= m+w) {
+	if !a.fits(a.devRange(&fp, &fm1, &fj, dev, devJ, &g1)) {
 		return false
 	}
 	f1, fm2 := a.footAt(t1), a.footAt(0.5*(tj+t1))
 	_, jt := arcTo(p, tg, j)
 	a.newArcGeom(&g2, j, jt, a2, q)
-	lo, hi := a.devRange(&fj, &fm2, &f1, devJ, dev1, &g2)
+	return a.fits(a.devRange(&fj, &fm2, &f1, devJ, dev1, &g2))
+}
+
+// fits reports whether deviations from lo to hi stay within arcLimit of
+// the usable half-width about its middle, as every accepted arc must.
+func (a *Approximator) fits(lo, hi float64) bool {
+	m, w := a.mid(), arcLimit*0.5*(a.hi-a.lo)
 	return lo >= m-w && hi <= m+w
 }
 
