@@ -1595,7 +1595,7 @@ func (s *arcState) rescue(a *Approximator, t1 float64) (Segment, bool) {
 		if !a.biarcFits(s.p, s.tan, s.tp, s.dev, q, tq, t1, a.mid(), leg) {
 			continue
 		}
-		k1, _, j, _, _ := a.biarc(s.p, s.tan, q, tq, s.tp, leg)
+		k1, _, j, _, _ := biarc(s.p, s.tan, q, tq, leg)
 		first := s.segment(&trial{k: k1, q: j})
 		s.second, s.pending = secondArc(j, q, tq), true
 		s.lastDt = math.Abs(t1 - s.tp)
@@ -1610,11 +1610,14 @@ func (s *arcState) rescue(a *Approximator, t1 float64) (Segment, bool) {
 // biarc) from p with tangent tg, foot tp and deviation dev to q with
 // tangent tq on the middle of the zone at foot t1 stays in the zone.
 func (a *Approximator) biarcFits(p, tg vec, tp, dev float64, q, tq vec, t1, dev1, leg float64) bool {
-	a1, a2, j, tj, ok := a.biarc(p, tg, q, tq, tp, leg)
+	a1, a2, j, jt, ok := biarc(p, tg, q, tq, leg)
 	if !ok {
 		return false
 	}
-	devJ := a.f.e.SignedDistance(ptOf(j)) - a.f.d
+	// The join's foot, unwrapped next to the start's, and its deviation.
+	tj, dj := a.f.e.Nearest(ptOf(j))
+	tj = unwrapNear(tj, tp)
+	devJ := dj - a.f.d
 	// The join, then each arc in turn: the first outside the zone decides.
 	if !a.fits(devJ, devJ) {
 		return false
@@ -1627,7 +1630,6 @@ func (a *Approximator) biarcFits(p, tg vec, tp, dev float64, q, tq vec, t1, dev1
 		return false
 	}
 	f1, fm2 := a.footAt(t1), a.footAt(0.5*(tj+t1))
-	_, jt := arcTo(p, tg, j)
 	a.newArcGeom(&g2, j, jt, a2, q)
 	return a.fits(a.devRange(&fj, &fm2, &f1, devJ, dev1, &g2))
 }
@@ -1673,10 +1675,11 @@ func (s *arcState) piece(a *Approximator, i, n int, t1 float64) (vec, vec) {
 func ptOf(v vec) ellipse.Point { return ellipse.Point{X: v.x, Y: v.y} }
 
 // biarc returns the curvatures of the two arcs of the equal-tangent-length
-// biarc from (p0, t0) to (p1, t1), the join point and the foot parameter
-// of the join, unwrapped next to ref (Bolton 1975: the join lies where the two tangent legs of
-// equal length α meet, |p0 + αt0 − (p1 − αt1)| = 2α).
-func (a *Approximator) biarc(p0, t0, p1, t1 vec, ref, leg float64) (k1, k2 float64, j vec, tj float64, ok bool) {
+// biarc from (p0, t0) to (p1, t1), the join point and the tangent there
+// (Bolton 1975: the join lies where the two tangent legs of equal length
+// α meet, |p0 + αt0 − (p1 − αt1)| = 2α); leg ≠ 1 makes the first leg
+// leg·α.
+func biarc(p0, t0, p1, t1 vec, leg float64) (k1, k2 float64, j, tj vec, ok bool) {
 	v := p1.sub(p0)
 	tt := t0.add(t1)
 	vt := v.dot(tt)
@@ -1687,7 +1690,7 @@ func (a *Approximator) biarc(p0, t0, p1, t1 vec, ref, leg float64) (k1, k2 float
 	den := 2 * (1 - c)
 	alpha := vv / (vt + math.Sqrt(vt*vt+den*vv))
 	if !(alpha > 0) || math.IsInf(alpha, 0) {
-		return 0, 0, vec{}, 0, false
+		return 0, 0, vec{}, vec{}, false
 	}
 	beta := alpha
 	if leg != 1 {
@@ -1696,19 +1699,15 @@ func (a *Approximator) biarc(p0, t0, p1, t1 vec, ref, leg float64) (k1, k2 float
 		alpha *= leg
 		beta = (vv - 2*alpha*v.dot(t0)) / (2*v.dot(t1) + alpha*den)
 		if !(beta > 0) || math.IsInf(beta, 0) {
-			return 0, 0, vec{}, 0, false
+			return 0, 0, vec{}, vec{}, false
 		}
 	}
 	a1 := p0.addScaled(t0, alpha)
 	a2 := p1.addScaled(t1, -beta)
 	// The join divides the line between the legs' ends as α to β.
 	j = a1.scale(beta / (alpha + beta)).add(a2.scale(alpha / (alpha + beta)))
-	k1, _ = arcTo(p0, t0, j)
-	_, tjv := arcTo(p0, t0, j)
-	k2, _ = arcTo(j, tjv, p1)
-	tj, _ = a.f.e.Nearest(ptOf(j))
-	// Unwrap the join's foot next to the current parameter.
-	tj = unwrapNear(tj, ref)
+	k1, tj = arcTo(p0, t0, j)
+	k2, _ = arcTo(j, tj, p1)
 	return k1, k2, j, tj, true
 }
 
@@ -1744,7 +1743,7 @@ func (s *arcState) nextClosing(a *Approximator) (Segment, bool) {
 	h := (a.tEnd - s.t0End) / float64(s.n)
 	t1 := s.t0End + h*float64(s.i+1)
 	q, tq := s.piece(a, s.i, s.n, t1)
-	k1, _, j, _, ok := a.biarc(s.p, s.tan, q, tq, s.tp, s.leg)
+	k1, _, j, _, ok := biarc(s.p, s.tan, q, tq, s.leg)
 	if !ok {
 		return Segment{}, false
 	}
