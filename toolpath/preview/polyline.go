@@ -74,9 +74,22 @@ func (p *polyline) flush() {
 func (p *polyline) empty() bool { return len(p.starts) == 0 }
 
 // replay hands the subpaths to dc as a path (not yet stroked).
-func (p *polyline) replay(dc *gg.Context) {
+func (p *polyline) replay(dc *gg.Context) { p.walk(dc, 0) }
+
+// replayChunks strokes the subpaths on dc with its current settings, at
+// most about chunk points per stroke. It suits opaque drawing only: where
+// two chunks meet or overlap, their coverage adds up.
+func (p *polyline) replayChunks(dc *gg.Context, chunk int) {
+	p.walk(dc, chunk)
+	dc.Stroke()
+}
+
+// walk hands the subpaths to dc, stroking after every chunk points when
+// chunk > 0 (the last stretch is left to the caller).
+func (p *polyline) walk(dc *gg.Context, chunk int) {
 	p.flush()
 	n := len(p.pts) / 2
+	count := 0
 	for k, s := range p.starts {
 		e := n
 		if k+1 < len(p.starts) {
@@ -89,36 +102,13 @@ func (p *polyline) replay(dc *gg.Context) {
 		}
 		for i := s + 1; i < e; i++ {
 			dc.LineTo(p.pts[2*i], p.pts[2*i+1])
-		}
-	}
-}
-
-// replayChunks strokes the subpaths on dc with its current settings, at
-// most about chunk points per stroke. It suits opaque drawing only: where
-// two chunks meet or overlap, their coverage adds up.
-func (p *polyline) replayChunks(dc *gg.Context, chunk int) {
-	p.flush()
-	n := len(p.pts) / 2
-	count := 0
-	for k, s := range p.starts {
-		e := n
-		if k+1 < len(p.starts) {
-			e = p.starts[k+1]
-		}
-		dc.MoveTo(p.pts[2*s], p.pts[2*s+1])
-		if e-s == 1 {
-			dc.LineTo(p.pts[2*s]+0.01, p.pts[2*s+1])
-		}
-		for i := s + 1; i < e; i++ {
-			dc.LineTo(p.pts[2*i], p.pts[2*i+1])
-			if count++; count >= chunk && i+1 < e {
+			if count++; chunk > 0 && count >= chunk && i+1 < e {
 				dc.Stroke()
 				dc.MoveTo(p.pts[2*i], p.pts[2*i+1])
 				count = 0
 			}
 		}
 	}
-	dc.Stroke()
 }
 
 // addSegment appends the plan view of a line or an arc to p.
