@@ -266,7 +266,6 @@ func (g *arcGeom) angle(w vec) float64 {
 // t meets the arc (or line), as a signed distance from the curve; NaN when
 // the normal misses the arc. Of the two crossings with the full circle the
 // one on the arc is taken (nearest the curve if both are).
-
 func (f *frame) circleDev(t float64, g *arcGeom) float64 {
 	s, c := math.Sincos(t)
 	return f.circleDevSC(s, c, g)
@@ -277,7 +276,23 @@ func (f *frame) circleDevSC(s, c float64, g *arcGeom) float64 {
 	// The curve's point and outward normal in the own frame.
 	n := vec{f.ry * c, f.rx * s}
 	n = n.scale(1 / math.Sqrt(n.x*n.x+n.y*n.y))
-	q := vec{f.rx*c + f.d*n.x, f.ry*s + f.d*n.y}
+	return f.crossing(vec{f.rx*c + f.d*n.x, f.ry*s + f.d*n.y}, n, g)
+}
+
+// circleDevNu is circleDev given the cosine and sine of the normal angle
+// ν (see normalAngle) rather than of t: the unit normal is (cos ν, sin ν)
+// and the ellipse's point (rx²·cos ν, ry²·sin ν)/|(rx·cos ν, ry·sin ν)|,
+// one square root fewer than through t.
+func (f *frame) circleDevNu(cn, sn float64, g *arcGeom) float64 {
+	a, b := f.rx*cn, f.ry*sn
+	ih := 1 / math.Sqrt(a*a+b*b)
+	return f.crossing(vec{f.rx*a*ih + f.d*cn, f.ry*b*ih + f.d*sn}, vec{cn, sn}, g)
+}
+
+// crossing returns λ where the normal line through q with unit direction
+// n (the intended curve's point and outward normal, in the own frame)
+// meets the arc or line g (see circleDev).
+func (f *frame) crossing(q, n vec, g *arcGeom) float64 {
 	if g.line {
 		den := n.dot(g.lnl)
 		if den == 0 {
@@ -482,7 +497,12 @@ func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (l
 	lo, hi = min(d0, d1), max(d0, d1)
 	v[0], v[m-1] = d0, d1
 	for j := 1; j < m-1; j++ {
-		x := f.circleDevSC(grid[j].s, grid[j].c, g)
+		var x float64
+		if mode == gridNu {
+			x = f.circleDevNu(grid[j].c, grid[j].s, g)
+		} else {
+			x = f.circleDevSC(grid[j].s, grid[j].c, g)
+		}
 		if math.IsNaN(x) {
 			return math.Inf(-1), math.Inf(1)
 		}
@@ -731,8 +751,9 @@ func (f *frame) paramAtNormal(nu float64) float64 {
 	return math.Atan2(f.ry*s, f.rx*c) + n*math.Pi
 }
 
-// sample is a grid point: the curve parameter (or, on the normal-angle
-// grid, the normal angle) and the sine and cosine of the parameter.
+// sample is a grid point: the curve parameter and its sine and cosine,
+// or, on the normal-angle grid, the normal angle and its sine and
+// cosine.
 type sample struct{ t, s, c float64 }
 
 // The grids devRange samples on.
@@ -752,7 +773,7 @@ func (f *frame) normalSC(x *foot) (cn, sn float64) {
 }
 
 // normalGrid appends to dst ν0 = ν(x.t), n steps uniform in the normal
-// angle and ν1, with the sines and cosines of their feet (by rotation,
+// angle and ν1, with the sines and cosines of those angles (by rotation,
 // from the normal at x and recomputed every reseed steps; not set at the
 // ends), and returns the count.
 func (f *frame) normalGrid(x *foot, nu1 float64, n int, dst []sample) int {
@@ -767,9 +788,7 @@ func (f *frame) normalGrid(x *foot, nu1 float64, n int, dst []sample) int {
 		} else {
 			sn, cn = sn*chN+cn*shN, cn*chN-sn*shN
 		}
-		a, b := f.rx*cn, f.ry*sn
-		h := math.Sqrt(a*a + b*b)
-		dst = append(dst, sample{t: nu0 + float64(j)*hn, s: b / h, c: a / h})
+		dst = append(dst, sample{t: nu0 + float64(j)*hn, s: sn, c: cn})
 	}
 	dst = append(dst, sample{t: nu1})
 	return len(dst)
@@ -782,9 +801,7 @@ func (f *frame) devAt(x float64, g *arcGeom) float64 {
 		return f.circleDev(x, g)
 	}
 	s, c := math.Sincos(x)
-	a, b := f.rx*c, f.ry*s
-	h := math.Sqrt(a*a + b*b)
-	return f.circleDevSC(b/h, a/h, g)
+	return f.circleDevNu(c, s, g)
 }
 
 // edgeSpeedMax returns the largest of vmax and the speeds at offset off of
