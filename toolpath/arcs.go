@@ -367,13 +367,15 @@ func (a *Approximator) footAtSC(t, sn, cs float64) foot {
 	}
 	v2, v, ke, kp := f.footBase(s, c)
 	edge := max(math.Abs(a.lo), math.Abs(a.hi))
+	// the speed at offset o is v + o·rx·ry/v2
+	u := f.rx * f.ry / v2
 	return foot{
 		t:     t,
 		k:     ke / (1 + f.d*ke),
 		nu:    math.Atan2(f.rx*s, f.ry*c) + n*math.Pi,
-		vEdge: v + (f.d+edge)*f.rx*f.ry/v2,
-		vMid:  v + (f.d+a.mid())*f.rx*f.ry/v2,
-		v:     v + f.d*f.rx*f.ry/v2,
+		vEdge: v + (f.d+edge)*u,
+		vMid:  v + (f.d+a.mid())*u,
+		v:     v + f.d*u,
 		kp:    kp,
 		sn:    sn,
 		cs:    cs,
@@ -388,9 +390,10 @@ func (a *Approximator) footAtSC(t, sn, cs float64) foot {
 func (f *frame) footBase(s, c float64) (v2, v, ke, kp float64) {
 	v2 = f.rx*f.rx*s*s + f.ry*f.ry*c*c
 	v = math.Sqrt(v2)
-	ke = f.rx * f.ry / (v2 * v)
+	iv := 1 / (v2 * v) // 1/|p′|³, whose square is 1/|p′|⁶
+	ke = f.rx * f.ry * iv
 	g1 := 1 + f.d*ke
-	dke := -3 * f.rx * f.ry * (f.rx*f.rx - f.ry*f.ry) * s * c / (v2 * v2 * v2)
+	dke := -3 * f.rx * f.ry * (f.rx*f.rx - f.ry*f.ry) * s * c * (iv * iv)
 	return v2, v, ke, dke / (g1 * g1 * g1)
 }
 
