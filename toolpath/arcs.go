@@ -213,7 +213,7 @@ type arcGeom struct {
 	r       float64 // radius
 	sv      vec     // start − centre, in the own frame
 	dir     float64 // +1 counter-clockwise, −1 clockwise
-	sweep   float64 // turning from start to end, in (0, 2π]
+	sweep   float64 // turning from start to end, in (0, 2π] (0: not yet known, see sweepOf)
 	wide    float64 // radius above which the near crossing is the arc's
 	fan     bool    // the normals fan out across the zone: always check
 	nu      bool    // devRange samples on the normal-angle grid
@@ -246,10 +246,20 @@ func (a *Approximator) newArcGeom(g *arcGeom, p, tg vec, k float64, q vec) {
 	g.cw = p.sub(g.c)
 	g.sv = f.localDir(g.cw)
 	g.dir = math.Copysign(1, k)
-	g.sweep = g.angle(f.localDir(q.sub(g.c)))
+	// g.sweep is left for sweepOf: most arcs are far wider than the zone
+	// and never need it.
+}
+
+// sweepOf returns the turning of the arc g from its start to its end, in
+// (0, 2π], computing it on first use.
+func (f *frame) sweepOf(g *arcGeom) float64 {
 	if g.sweep == 0 {
-		g.sweep = 2 * math.Pi
+		g.sweep = g.angle(f.localDir(g.q.sub(g.c)))
+		if g.sweep == 0 {
+			g.sweep = 2 * math.Pi
+		}
 	}
+	return g.sweep
 }
 
 // angle returns the turning from the start to the direction w (in the
@@ -319,11 +329,11 @@ func (f *frame) crossing(q, n vec, g *arcGeom) float64 {
 		return l1
 	}
 	l2 := -b - math.Copysign(sq, b) // the other crossing
-	slack := 1e-9
-	if g.angle(w.addScaled(n, l1)) <= g.sweep+slack {
+	sweep := f.sweepOf(g) + 1e-9    // a little slack
+	if g.angle(w.addScaled(n, l1)) <= sweep {
 		return l1
 	}
-	if g.angle(w.addScaled(n, l2)) <= g.sweep+slack {
+	if g.angle(w.addScaled(n, l2)) <= sweep {
 		return l2
 	}
 	return math.NaN()
@@ -576,7 +586,7 @@ func (a *Approximator) pointRange(g *arcGeom) (lo, hi float64) {
 		if g.line {
 			p = g.p.add(g.q.sub(g.p).scale(u))
 		} else {
-			s, c := math.Sincos(g.dir * g.sweep * u)
+			s, c := math.Sincos(g.dir * f.sweepOf(g) * u)
 			w := g.cw.scale(c).add(g.cw.left().scale(s * g.dir))
 			p = g.c.add(w)
 		}
