@@ -20,10 +20,14 @@ type stepModel struct {
 	u0, v0, c, w float64
 	fixed        bool // the end deviation is u1, not the deadbeat rule's
 	u1           float64
+	iw, i2c      float64 // 1/w and 2/c, once ratio has needed them (0: not yet)
 }
 
 // ratio returns the model's use of the zone by a step of length l.
 func (m *stepModel) ratio(l float64) float64 {
+	if m.iw == 0 {
+		m.iw, m.i2c = 1/m.w, 2/m.c
+	}
 	u1 := m.u1
 	if !m.fixed {
 		u1 = deadbeat(m.u0, m.v0-m.c*l*l/12, l, endLimit*m.w)
@@ -40,7 +44,7 @@ func (m *stepModel) ratio(l float64) float64 {
 	} else if disc := qb*qb - 4*qa*qc; disc >= 0 {
 		q := -0.5 * (qb + math.Copysign(math.Sqrt(disc), qb))
 		if q != 0 {
-			r1, r2 = q/qa, qc/q
+			r1, r2 = q*m.i2c, qc/q
 		}
 	}
 	if r1 > 0 && r1 < l {
@@ -51,7 +55,7 @@ func (m *stepModel) ratio(l float64) float64 {
 		d := m.u0 + r2*(m.v0+r2*(a/2+r2*m.c/6))
 		hi, lo = max(hi, d), min(lo, d)
 	}
-	return max(hi, -lo) / m.w
+	return max(hi, -lo) * m.iw
 }
 
 // span returns a length near l0 at which the model's use of the zone

@@ -715,19 +715,23 @@ func (f *frame) polish(g *arcGeom, x, v []float64, j int, sign, tol float64, hal
 // parabolaVertex returns the vertex of the parabola through three points
 // when it lies between the outer two.
 func parabolaVertex(x0, x1, x2, y0, y1, y2 float64) (xv, yv float64, ok bool) {
-	d01 := (y1 - y0) / (x1 - x0)
-	d12 := (y2 - y1) / (x2 - x1)
-	c := (d12 - d01) / (x2 - x0)
-	b := d01 + c*(x1-x0) // slope at x1
-	if c == 0 || math.IsNaN(c) || math.IsInf(c, 0) {
+	// y = y1 + b·u + c·u² with u = x − x1; with u0, u2 the outer points'
+	// u and e0, e2 their y − y1, b·D = e0·u2² − e2·u0² and
+	// c·D = e2·u0 − e0·u2 for D = u0·u2·(u2 − u0): the vertex is at
+	// u = −b/(2c), which D cancels from, and lies b·u/2 above y1.
+	u0, u2 := x0-x1, x2-x1
+	e0, e2 := y0-y1, y2-y1
+	bd, cd := e0*u2*u2-e2*u0*u0, e2*u0-e0*u2
+	d := u0 * u2 * (u2 - u0)
+	if cd == 0 || d == 0 {
 		return 0, 0, false
 	}
-	h := -b / (2 * c)
+	h := -bd / (2 * cd)
 	xv = x1 + h
-	if xv <= min(x0, x2) || xv >= max(x0, x2) || xv == x1 {
+	if !(xv > min(x0, x2) && xv < max(x0, x2)) || xv == x1 {
 		return 0, 0, false
 	}
-	return xv, y1 + b*h + c*h*h, true
+	return xv, y1 + 0.5*h*(bd/d), true
 }
 
 // curvatureRange returns the smallest and largest curvature of the

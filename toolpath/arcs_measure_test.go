@@ -49,3 +49,28 @@ func TestDevRangeFindsAPeakBesideTheSample(t *testing.T) {
 		t.Errorf("devRange's largest deviation %.9g, dense %.9g: short by %.3g, more than devMiss of the half-width (%.3g)", hi, dense, dense-hi, miss)
 	}
 }
+
+func TestParabolaVertex(t *testing.T) {
+	p := func(x float64) float64 { return 2 - 3*(x-0.7)*(x-0.7) }
+	q := func(x float64) float64 { return -1 + 0.5*(x+2)*(x+2) }
+	for _, c := range []struct {
+		name       string
+		x0, x1, x2 float64
+		y          func(float64) float64
+		xv, yv     float64
+		ok         bool
+	}{
+		{"a peak between", 0, 0.5, 1, p, 0.7, 2, true},
+		{"unevenly spaced, descending x", 1.3, 0.9, 0.2, p, 0.7, 2, true},
+		{"a trough", -3, -2.5, -1, q, -2, -1, true},
+		{"the vertex outside", 1, 1.5, 2, p, 0, 0, false},
+		{"the vertex on the middle point", 0.4, 0.7, 1, p, 0, 0, false},
+		{"collinear", 0, 1, 2, func(x float64) float64 { return 3 * x }, 0, 0, false},
+		{"two points at one place", 0.5, 0.5, 1, p, 0, 0, false},
+	} {
+		xv, yv, ok := parabolaVertex(c.x0, c.x1, c.x2, c.y(c.x0), c.y(c.x1), c.y(c.x2))
+		if ok != c.ok || ok && (math.Abs(xv-c.xv) > 1e-12 || math.Abs(yv-c.yv) > 1e-12) {
+			t.Errorf("%s: got (%.15g, %.15g, %v), want (%g, %g, %v)", c.name, xv, yv, ok, c.xv, c.yv, c.ok)
+		}
+	}
+}
