@@ -240,9 +240,10 @@ func (a *Approximator) newArcGeom(g *arcGeom, p, tg vec, k float64, q vec) {
 		g.lp, g.lnl = f.local(p), f.localDir(g.nl)
 		return
 	}
-	g.c = p.addScaled(g.nl, 1/k)
+	rk := 1 / k
+	g.c = p.addScaled(g.nl, rk)
 	g.lc = f.local(g.c)
-	g.r = math.Abs(1 / k)
+	g.r = math.Abs(rk)
 	g.cw = p.sub(g.c)
 	g.sv = f.localDir(g.cw)
 	g.dir = math.Copysign(1, k)
@@ -949,9 +950,10 @@ func arcTo(p, tg, q vec) (k float64, end vec) {
 	if l2 == 0 {
 		return 0, tg
 	}
-	k = 2 * tg.cross(ch) / l2
-	u := ch.scale(1 / math.Sqrt(l2))
-	end = u.scale(2 * u.dot(tg)).sub(tg)
+	il2 := 1 / l2
+	k = 2 * tg.cross(ch) * il2
+	// the tangent reflected in the chord
+	end = ch.scale(2 * ch.dot(tg) * il2).sub(tg)
 	// Renormalised: over thousands of joins the reflections' rounding
 	// would let the tangent's length drift, and a circle of radius R
 	// built on it would miss its own start by R times the drift.
@@ -998,8 +1000,8 @@ func (a *Approximator) tryEnd(s *arcState, fm, f1 *foot, e1 float64, tr *trial) 
 	q, _, n := f.atSC(f1.sn, f1.cs, f.d+e1)
 	k, end := arcTo(s.p, s.tan, q)
 	tr.k, tr.end, tr.q, tr.dev1, tr.t1 = k, end, q, e1, t1
-	chord := q.sub(s.p).norm()
-	if k == 0 || math.Abs(1/k) > arcMaxRadius*(f.e.MaxRadiusOfCurvature()+math.Abs(f.d)) || chord*chord*math.Abs(k)/8 < a.round {
+	ch := q.sub(s.p)
+	if ak := math.Abs(k); ak*arcMaxRadius*(f.e.MaxRadiusOfCurvature()+math.Abs(f.d)) < 1 || ch.dot(ch)*ak < 8*a.round {
 		// Too flat to write as an arc: a line along the tangent to the
 		// normal at t1 (solve p + u·tan = q + λ·n).
 		den := s.tan.cross(n)

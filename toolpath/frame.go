@@ -48,8 +48,8 @@ func (f *frame) at(t, off float64) (p, tan, nrm vec) {
 func (f *frame) atSC(s, c, off float64) (p, tan, nrm vec) {
 	lx, ly := f.rx*c, f.ry*s
 	tx, ty := -f.rx*s, f.ry*c
-	h := math.Sqrt(tx*tx + ty*ty) // semi-axes are at most 1e100
-	tx, ty = tx/h, ty/h
+	ih := 1 / math.Sqrt(tx*tx+ty*ty) // semi-axes are at most 1e100
+	tx, ty = tx*ih, ty*ih
 	nx, ny := ty, -tx
 	lx += off * nx
 	ly += off * ny
