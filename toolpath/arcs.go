@@ -58,7 +58,11 @@ import (
 // arcs and trials both (README, DEVELOPERS.md).
 
 const (
-	arcSamples = 6
+	// arcSamples is the fewest interior samples of a trial's deviation;
+	// devRange takes more where the spacing it needs is finer. Four
+	// rather than six: the same counts over 10 000 draws and about 3 %
+	// less time (DEVELOPERS.md).
+	arcSamples = 4
 	maxSamples = 128
 	devMiss    = 0.002
 	// A join on the steady pattern commits the next arc to humps as high
