@@ -20,14 +20,18 @@ type stepModel struct {
 	u0, v0, c, w float64
 	fixed        bool // the end deviation is u1, not the deadbeat rule's
 	u1           float64
-	iw, i2c      float64 // 1/w and 2/c, once ratio has needed them (0: not yet)
+	iw, i2c      float64 // 1/w and 2/c, for ratio
+}
+
+// newStepModel returns the model of a step from deviation u0 and slope
+// v0 along a curve whose κ′ is c, in a zone of half-width w, with the end
+// deviation by the deadbeat rule (set fixed and u1 for another).
+func newStepModel(u0, v0, c, w float64) stepModel {
+	return stepModel{u0: u0, v0: v0, c: c, w: w, iw: 1 / w, i2c: 2 / c}
 }
 
 // ratio returns the model's use of the zone by a step of length l.
 func (m *stepModel) ratio(l float64) float64 {
-	if m.iw == 0 {
-		m.iw, m.i2c = 1/m.w, 2/m.c
-	}
 	u1 := m.u1
 	if !m.fixed {
 		u1 = deadbeat(m.u0, m.v0-m.c*l*l/12, l, endLimit*m.w)

@@ -27,14 +27,14 @@ func denseModelRatio(m *stepModel, l float64) float64 {
 
 func drawStepModel(t *rapid.T) stepModel {
 	w := math.Pow(10, rapid.Float64Range(-4, 0).Draw(t, "log w"))
-	return stepModel{
-		u0:    w * rapid.Float64Range(-0.99, 0.99).Draw(t, "u0"),
-		v0:    rapid.Float64Range(-0.05, 0.05).Draw(t, "v0"),
-		c:     rapid.Float64Range(-1, 1).Draw(t, "c") * math.Pow(10, rapid.Float64Range(-6, 0).Draw(t, "log c")),
-		w:     w,
-		fixed: rapid.Bool().Draw(t, "fixed"),
-		u1:    w * rapid.Float64Range(-0.8, 0.8).Draw(t, "u1"),
-	}
+	m := newStepModel(
+		w*rapid.Float64Range(-0.99, 0.99).Draw(t, "u0"),
+		rapid.Float64Range(-0.05, 0.05).Draw(t, "v0"),
+		rapid.Float64Range(-1, 1).Draw(t, "c")*math.Pow(10, rapid.Float64Range(-6, 0).Draw(t, "log c")),
+		w)
+	m.fixed = rapid.Bool().Draw(t, "fixed")
+	m.u1 = w * rapid.Float64Range(-0.8, 0.8).Draw(t, "u1")
+	return m
 }
 
 // TestStepModelRatioFindsTheCubicsExtremes: the extremes from the roots
@@ -74,7 +74,7 @@ func TestStepModelCases(t *testing.T) {
 	// On the steady pattern (u₀ = 0, v₀ = g = cL²/12) the deadbeat end is
 	// the middle and the humps reach cL³/(72√3) (see endDeviation).
 	c, l, w := 2e-3, 10.0, 1.0
-	m := stepModel{v0: c * l * l / 12, c: c, w: w}
+	m := newStepModel(0, c*l*l/12, c, w)
 	want := c * l * l * l / (72 * math.Sqrt(3)) / w
 	if got := m.ratio(l); math.Abs(got-want) > 1e-12 {
 		t.Errorf("steady pattern: ratio %.15g, want %.15g", got, want)
@@ -85,16 +85,22 @@ func TestStepModelCases(t *testing.T) {
 		l0   float64
 		ok   bool
 	}{
-		{"no length", stepModel{w: 1, c: 1}, 0, false},
-		{"NaN length", stepModel{w: 1, c: 1}, math.NaN(), false},
-		{"never reaches the target", stepModel{w: 1, fixed: true}, 1, false},
-		{"reaches it", stepModel{w: 1, c: 1e-3}, 10, true},
+		{"no length", newStepModel(0, 0, 1, 1), 0, false},
+		{"NaN length", newStepModel(0, 0, 1, 1), math.NaN(), false},
+		{"never reaches the target", fixedAt(newStepModel(0, 0, 0, 1), 0), 1, false},
+		{"reaches it", newStepModel(0, 0, 1e-3, 1), 10, true},
 	}
 	for _, tt := range tests {
 		if _, ok := tt.m.span(0.9, tt.l0, tt.m.ratio(tt.l0)); ok != tt.ok {
 			t.Errorf("%s: ok %v, want %v", tt.name, ok, tt.ok)
 		}
 	}
+}
+
+// fixedAt returns m with the end deviation fixed at u1.
+func fixedAt(m stepModel, u1 float64) stepModel {
+	m.fixed, m.u1 = true, u1
+	return m
 }
 
 func TestCbrtNear(t *testing.T) {

@@ -428,10 +428,11 @@ func (f *frame) footBase(s, c float64) (v2, v, ke, kp float64) {
 // the check at the vertex would only repeat the sample). Where the zone
 // is wide beside the radius of curvature (above 5%) the normals fan out
 // across it and λ is not smooth enough to polish; there h also keeps the
-// one-parabola miss |κ′|·h³/24 below devMiss of the half-width. Uniform steps in the parameter
-// t crowd the flat stretches of a flat ellipse and starve its tips, and
-// uniform steps in the normal angle do the opposite, so half the samples
-// come from each grid, merged in order.
+// one-parabola miss |κ′|·h³/24 below devMiss of the half-width. Uniform
+// steps in the parameter t crowd the flat stretches of a flat ellipse and
+// starve its tips, and uniform steps in the normal angle do the opposite:
+// the samples come from whichever grid needs fewest, or from both merged
+// in order.
 func (a *Approximator) devRange(f0, fm, f1 *foot, d0, d1 float64, g *arcGeom) (lo, hi float64) {
 	f := &a.f
 	t0, t1 := f0.t, f1.t
@@ -1515,7 +1516,7 @@ func (s *arcState) model(a *Approximator, dt, e1 float64, fixed bool) (md stepMo
 	sn, cn := math.Sincos(s.tp + a.sigma*0.5*dt)
 	v2, v, _, kp := f.footBase(sn, cn)
 	v += (f.d + m) * f.rx * f.ry / v2
-	md = stepModel{u0: s.dev - m, v0: s.slope(a), c: a.sigma * kp, w: a.hi - m}
+	md = newStepModel(s.dev-m, s.slope(a), a.sigma*kp, a.hi-m)
 	if fixed {
 		md.fixed, md.u1 = true, e1-m
 	}
@@ -1631,8 +1632,9 @@ func (s *arcState) rescue(a *Approximator, t1 float64) (Segment, bool) {
 	// leaves no single arc room, and a short first arc turns it soonest
 	// (on the coarse tabletop the 0.35 leg fitted after three others
 	// failed).
+	f1 := a.footAt(t1)
 	for _, leg := range [...]float64{0.35, 0.6, 1, 1.6, 2.8} {
-		if !a.biarcFits(s.p, s.tan, s.tp, s.dev, q, tq, t1, a.mid(), leg) {
+		if !a.biarcFits(s.p, s.tan, &s.foot, s.dev, q, tq, &f1, a.mid(), leg) {
 			continue
 		}
 		k1, _, j, _, _ := biarc(s.p, s.tan, q, tq, leg)
@@ -1640,23 +1642,23 @@ func (s *arcState) rescue(a *Approximator, t1 float64) (Segment, bool) {
 		s.second, s.pending = secondArc(j, q, tq), true
 		s.lastDt = math.Abs(t1 - s.tp)
 		s.p, s.tan, s.tp, s.dev = q, tq, t1, a.mid()
-		s.foot, s.haveSlope = a.footAt(t1), false
+		s.foot, s.haveSlope = f1, false
 		return first, true
 	}
 	return Segment{}, false
 }
 
 // biarcFits reports whether the biarc with first leg ratio leg (see
-// biarc) from p with tangent tg, foot tp and deviation dev to q with
-// tangent tq on the middle of the zone at foot t1 stays in the zone.
-func (a *Approximator) biarcFits(p, tg vec, tp, dev float64, q, tq vec, t1, dev1, leg float64) bool {
+// biarc) from p with tangent tg, foot fp and deviation dev to q with
+// tangent tq, foot f1 and deviation dev1 stays in the zone.
+func (a *Approximator) biarcFits(p, tg vec, fp *foot, dev float64, q, tq vec, f1 *foot, dev1, leg float64) bool {
 	a1, a2, j, jt, ok := biarc(p, tg, q, tq, leg)
 	if !ok {
 		return false
 	}
 	// The join's foot, unwrapped next to the start's, and its deviation.
 	tj, dj := a.f.e.Nearest(ptOf(j))
-	tj = unwrapNear(tj, tp)
+	tj = unwrapNear(tj, fp.t)
 	devJ := dj - a.f.d
 	// The join, then each arc in turn: the first outside the zone decides.
 	if !a.fits(devJ, devJ) {
@@ -1664,14 +1666,13 @@ func (a *Approximator) biarcFits(p, tg vec, tp, dev float64, q, tq vec, t1, dev1
 	}
 	var g1, g2 arcGeom
 	a.newArcGeom(&g1, p, tg, a1, j)
-	fp, fj := a.footAt(tp), a.footAt(tj)
-	fm1 := a.footAt(0.5 * (tp + tj))
-	if !a.fits(a.devRange(&fp, &fm1, &fj, dev, devJ, &g1)) {
+	fj, fm1 := a.footAt(tj), a.footAt(0.5*(fp.t+tj))
+	if !a.fits(a.devRange(fp, &fm1, &fj, dev, devJ, &g1)) {
 		return false
 	}
-	f1, fm2 := a.footAt(t1), a.footAt(0.5*(tj+t1))
+	fm2 := a.footAt(0.5 * (tj + f1.t))
 	a.newArcGeom(&g2, j, jt, a2, q)
-	return a.fits(a.devRange(&fj, &fm2, &f1, devJ, dev1, &g2))
+	return a.fits(a.devRange(&fj, &fm2, f1, devJ, dev1, &g2))
 }
 
 // fits reports whether deviations from lo to hi stay within arcLimit of
@@ -1685,19 +1686,20 @@ func (a *Approximator) fits(lo, hi float64) bool {
 // to the end, through the middle curve with its own tangent at n − 1
 // evenly spaced interior parameters, stay in the zone.
 func (s *arcState) closeFits(a *Approximator, n int) bool {
-	p, tg, tp, dev := s.p, s.tan, s.tp, s.dev
-	h := (a.tEnd - tp) / float64(n)
+	p, tg, fp, dev := s.p, s.tan, s.foot, s.dev
+	h := (a.tEnd - s.tp) / float64(n)
 	for i := 0; i < n; i++ {
-		t1 := tp + h
+		t1 := s.tp + float64(i+1)*h
 		q, tq := s.piece(a, i, n, t1)
 		dev1 := a.mid()
 		if i == n-1 {
 			dev1 = s.dev0
 		}
-		if !a.biarcFits(p, tg, tp, dev, q, tq, t1, dev1, s.leg) {
+		f1 := a.footAt(t1)
+		if !a.biarcFits(p, tg, &fp, dev, q, tq, &f1, dev1, s.leg) {
 			return false
 		}
-		p, tg, tp, dev = q, tq, t1, a.mid()
+		p, tg, fp, dev = q, tq, f1, a.mid()
 	}
 	return true
 }
